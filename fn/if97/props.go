@@ -12,9 +12,11 @@ const (
 	Rhoc = 322.0
 	// Tt is the triple-point temperature, K (R7-97(2012), section 5).
 	Tt = 273.16
-	// Pt is the triple-point pressure, MPa, from the saturation-pressure
-	// equation at Tt (R7-97(2012), section 8.1).
-	Pt = 611.212677e-6
+	// Pt is the triple-point pressure, MPa: 611.657 Pa, the value adopted by
+	// IAPWS (Revised Supplementary Release on Saturation Properties of
+	// Ordinary Water Substance, 1992; from memory). R7-97(2012) Eq. 30 gives
+	// 611.657 Pa at Tt too; its value at 273.15 K is 611.213 Pa.
+	Pt = 611.657e-6
 )
 
 // Props is the full set of single-phase properties of one state, in base units.
