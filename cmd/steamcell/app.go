@@ -19,6 +19,10 @@ const (
 // -ldflags "-X main.Version=…".
 var Version = "0.1.0-dev"
 
+// verbs are the commands besides version; each verb's file adds itself in
+// an init function, so that a verb is registered exactly when it exists.
+var verbs []func(*App) *cobra.Command
+
 // usageError marks an error in the command line (unknown flag, missing
 // argument) so that Run can exit with ExitUsage.
 type usageError struct{ err error }
@@ -90,6 +94,9 @@ and boiler design codes, inspection rules or a licensed engineer's review.`,
 	root.SetErr(a.err)
 	root.SetFlagErrorFunc(func(_ *cobra.Command, err error) error { return usageError{err} })
 	root.AddCommand(a.versionCommand())
+	for _, verb := range verbs {
+		root.AddCommand(verb(a))
+	}
 	for _, c := range root.Commands() {
 		if c.Args == nil {
 			c.Args = noArgs

@@ -1,0 +1,230 @@
+package fn
+
+import (
+	"math"
+
+	"steamcell/fn/if97"
+)
+
+// The solvers below work on the native variables of each IF97 region: (p, T)
+// for the Gibbs regions 1, 2 and 5, (ρ, T) for the Helmholtz region 3. Their
+// Jacobians come from the derivative properties of if97.Props (cp, αv, κT),
+// by the relations of R7-97(2012) Tables 3 and 31 and the chain rule; see
+// partials.
+
+// mpaM3 is kJ in one MPa·m³: p·v in MPa·m³/kg times mpaM3 is in kJ/kg.
+const mpaM3 = 1e3
+
+// eval returns the properties in region r at native variables a and T: a is
+// p (MPa) for regions 1, 2 and 5, ρ (kg/m³) for region 3.
+func eval(r int, a, T float64) if97.Props {
+	switch r {
+	case 1:
+		return if97.Region1(a, T)
+	case 2:
+		return if97.Region2(a, T)
+	case 3:
+		return if97.Region3(a, T)
+	}
+	return if97.Region5(a, T)
+}
+
+// native returns the native first variable of region r for props pr.
+func native(r int, pr *if97.Props) float64 {
+	if r == 3 {
+		return pr.Rho
+	}
+	return pr.P
+}
+
+// value returns quantity q of pr.
+func value(q Quantity, pr *if97.Props) float64 {
+	switch q {
+	case Pressure:
+		return pr.P
+	case Temperature:
+		return pr.T
+	case Enthalpy:
+		return pr.H
+	case Entropy:
+		return pr.S
+	case Volume:
+		return pr.V
+	case Density:
+		return pr.Rho
+	case InternalEnergy:
+		return pr.U
+	}
+	return math.NaN()
+}
+
+// partials returns the derivatives of quantity q with respect to the native
+// variables of region r: (∂q/∂p)_T and (∂q/∂T)_p for the Gibbs regions,
+// (∂q/∂ρ)_T and (∂q/∂T)_ρ for region 3.
+//
+// In (p, T), from v, αv = (1/v)(∂v/∂T)_p, κT = −(1/v)(∂v/∂p)_T and cp:
+//
+//	(∂v/∂p)_T = −v κT               (∂v/∂T)_p = v αv
+//	(∂h/∂p)_T = v (1 − T αv)        (∂h/∂T)_p = cp
+//	(∂s/∂p)_T = −v αv               (∂s/∂T)_p = cp / T
+//	(∂u/∂p)_T = v (p κT − T αv)     (∂u/∂T)_p = cp − p v αv
+//
+// and in (ρ, T), with (∂p/∂ρ)_T = 1/(ρ κT) and (∂p/∂T)_ρ = αv/κT, by the chain
+// rule from the above.
+func partials(q Quantity, r int, pr *if97.Props) (da, dT float64) {
+	v, T, p := pr.V, pr.T, pr.P
+	var dp float64 // (∂q/∂p)_T
+	switch q {
+	case Pressure:
+		dp, dT = 1, 0
+	case Temperature:
+		dp, dT = 0, 1
+	case Volume:
+		dp, dT = -v*pr.KappaT, v*pr.AlphaV
+	case Density:
+		dp, dT = pr.Rho*pr.KappaT, -pr.Rho*pr.AlphaV
+	case Enthalpy:
+		dp, dT = mpaM3*v*(1-T*pr.AlphaV), pr.Cp
+	case Entropy:
+		dp, dT = -mpaM3*v*pr.AlphaV, pr.Cp/T
+	case InternalEnergy:
+		dp, dT = mpaM3*v*(p*pr.KappaT-T*pr.AlphaV), pr.Cp-mpaM3*p*v*pr.AlphaV
+	}
+	if r != 3 {
+		return dp, dT
+	}
+	// Region 3: the native variables are (ρ, T).
+	switch q {
+	case Density:
+		return 1, 0
+	case Volume:
+		return -v * v, 0
+	case Temperature:
+		return 0, 1
+	}
+	dpdrho := 1 / (pr.Rho * pr.KappaT)
+	dpdT := pr.AlphaV / pr.KappaT
+	return dp * dpdrho, dT + dp*dpdT
+}
+
+// box bounds the native variables of a region during a solve.
+type box struct{ aMin, aMax, tMin, tMax float64 }
+
+// regionBox returns generous bounds of region r's native variables; the
+// solution is checked against the exact region afterwards.
+func regionBox(r int) box {
+	switch r {
+	case 1:
+		return box{1e-7, PMax, TMin, T13}
+	case 2:
+		return box{1e-9, PMax, TMin, TMax}
+	case 3:
+		return box{50, 800, T13, 870}
+	}
+	return box{1e-9, PMaxHigh, TMax, TMaxHigh}
+}
+
+// newton2 solves q1(a, T) = v1, q2(a, T) = v2 in region r from the start
+// (a, T) by Newton steps with the analytic Jacobian, damped to stay in the
+// region's box. It returns the properties and whether it converged to a
+// relative change below 1e-13 in both variables.
+func newton2(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64) (if97.Props, bool) {
+	b := regionBox(r)
+	s1, s2 := scaleOf(q1, v1), scaleOf(q2, v2)
+	var pr if97.Props
+	for it := 0; it < 60; it++ {
+		pr = eval(r, a, T)
+		r1 := (value(q1, &pr) - v1) / s1
+		r2 := (value(q2, &pr) - v2) / s2
+		j11, j12 := partials(q1, r, &pr)
+		j21, j22 := partials(q2, r, &pr)
+		j11, j12, j21, j22 = j11/s1, j12/s1, j21/s2, j22/s2
+		det := j11*j22 - j12*j21
+		if det == 0 || math.IsNaN(det) {
+			return pr, false
+		}
+		da := (-r1*j22 + r2*j12) / det
+		dT := (-r2*j11 + r1*j21) / det
+		// Damp the step to stay inside the box and to move T by at most
+		// a third, a by at most a factor of three, per step.
+		lam := 1.0
+		lam = limitStep(lam, T, dT, b.tMin, b.tMax, T/3)
+		lam = limitStep(lam, a, da, b.aMin, b.aMax, 2*a)
+		a += lam * da
+		T += lam * dT
+		if math.Abs(da) <= 1e-13*math.Abs(a) && math.Abs(dT) <= 1e-13*T {
+			return eval(r, a, T), true
+		}
+		if lam == 1 && math.Abs(da) <= 1e-11*math.Abs(a) && math.Abs(dT) <= 1e-11*T {
+			// Quadratic convergence: one more step is below rounding.
+			return eval(r, a, T), true
+		}
+	}
+	return pr, false
+}
+
+// newton1 solves q(a, T) = v for the native variable a at fixed T, or for T
+// at fixed a when onT is true, in region r from the given start.
+func newton1(r int, q Quantity, v float64, a, T float64, onT bool) (if97.Props, bool) {
+	b := regionBox(r)
+	var pr if97.Props
+	for it := 0; it < 80; it++ {
+		pr = eval(r, a, T)
+		res := value(q, &pr) - v
+		da, dT := partials(q, r, &pr)
+		if onT {
+			if dT == 0 || math.IsNaN(dT) {
+				return pr, false
+			}
+			step := limitStep(1, T, -res/dT, b.tMin, b.tMax, T/3) * (-res / dT)
+			T += step
+			if math.Abs(step) <= 1e-13*T {
+				return eval(r, a, T), true
+			}
+			continue
+		}
+		if da == 0 || math.IsNaN(da) {
+			return pr, false
+		}
+		step := limitStep(1, a, -res/da, b.aMin, b.aMax, 2*a) * (-res / da)
+		a += step
+		if math.Abs(step) <= 1e-13*math.Abs(a) {
+			return eval(r, a, T), true
+		}
+	}
+	return pr, false
+}
+
+// limitStep shrinks lam so that x + lam·dx stays inside [lo, hi] (stopping
+// halfway to a bound it would cross) and |lam·dx| ≤ maxStep.
+func limitStep(lam, x, dx, lo, hi, maxStep float64) float64 {
+	if dx == 0 {
+		return lam
+	}
+	if m := math.Abs(dx) * lam; m > maxStep {
+		lam *= maxStep / m
+	}
+	if y := x + lam*dx; y > hi {
+		lam = (hi - x) / dx / 2
+	} else if y < lo {
+		lam = (lo - x) / dx / 2
+	}
+	return lam
+}
+
+// scaleOf returns a residual scale for quantity q near value v, so that
+// the two residuals of a Newton solve are of comparable size.
+func scaleOf(q Quantity, v float64) float64 {
+	switch q {
+	case Entropy:
+		return 1 // kJ/(kg·K): s runs 0…12
+	case Enthalpy, InternalEnergy:
+		return 1000
+	case Temperature:
+		return 100
+	}
+	if a := math.Abs(v); a > 0 {
+		return a
+	}
+	return 1
+}

@@ -1,0 +1,222 @@
+package fn
+
+import (
+	"math"
+
+	"steamcell/fn/if97"
+)
+
+// P13Sat is the saturation pressure at 623.15 K, where the saturation line
+// leaves regions 1 and 2 for region 3 (about 16.529 MPa), R7-97(2012) Eq. 30.
+var P13Sat = if97.SatPressure(T13)
+
+// tRangeAtP returns the temperature limits of the range of validity at p.
+func tRangeAtP(p float64) (lo, hi float64) {
+	if p > PMaxHigh {
+		return TMin, TMax
+	}
+	return TMin, TMaxHigh
+}
+
+// checkP checks a pressure given as an input.
+func checkP(p float64) error {
+	switch {
+	case p <= 0:
+		return outOfRange(Pressure, p, 0, "p must be above 0 MPa (absolute)")
+	case p > PMax:
+		return outOfRange(Pressure, p, PMax, "p above %g MPa", PMax)
+	}
+	return nil
+}
+
+// checkQAtP checks that q = val lies between its values at the lowest and
+// the highest temperature of the range of validity at pressure p; q must
+// increase with T at constant p (h, s).
+func checkQAtP(p float64, q Quantity, val float64) error {
+	tLo, tHi := tRangeAtP(p)
+	if lo := quantityAt(q, p, tLo); val < lo {
+		return outOfRange(q, val, lo, "%s below %.8g %s, its value at %g K and p = %g MPa", q.Symbol(), lo, q.BaseUnit(), tLo, p)
+	}
+	if hi := quantityAt(q, p, tHi); val > hi {
+		return outOfRange(q, val, hi, "%s above %.8g %s, its value at %g K and p = %g MPa", q.Symbol(), hi, q.BaseUnit(), tHi, p)
+	}
+	return nil
+}
+
+// fromPQ returns the state at pressure p and q = in.Value, where q is h or
+// s, both rising with T at constant pressure.
+func fromPQ(p float64, in Input) (State, error) {
+	q, val := in.Q, in.Value
+	if err := checkP(p); err != nil {
+		return State{}, err
+	}
+	if err := checkQAtP(p, q, val); err != nil {
+		return State{}, err
+	}
+	_, tHi := tRangeAtP(p)
+	vapour := func(tLo float64) (State, error) {
+		if tHi > TMax && val > quantityAt(q, p, TMax) {
+			return solvedAtP(5, p, q, val, TMax, tHi)
+		}
+		return solvedAtP(2, p, q, val, tLo, math.Min(tHi, TMax))
+	}
+	if p <= P13Sat {
+		if p < PMinSat { // below the triple-point pressure: vapour only
+			return vapour(TMin)
+		}
+		ts := if97.SatTemperature(p)
+		liq := if97.Region1(p, ts)
+		if ql := value(q, &liq); val < ql {
+			return solvedAtP(1, p, q, val, TMin, ts)
+		} else if vap := if97.Region2(p, ts); val <= value(q, &vap) {
+			sat := Saturation{P: p, T: ts, Liquid: liq, Vapour: vap}
+			return mixture(sat, quality(ql, value(q, &vap), val)), nil
+		}
+		return vapour(ts)
+	}
+	if val <= quantityAt(q, p, T13) {
+		return solvedAtP(1, p, q, val, TMin, T13)
+	}
+	tb := if97.B23Temperature(p)
+	if val >= value(q, ptr(if97.Region2(p, tb))) {
+		return vapour(tb)
+	}
+	if p < if97.Pc {
+		ts := if97.SatTemperature(p)
+		sat, ok := saturationAt(ts)
+		if ok {
+			sat.P = p
+			ql, qv := value(q, &sat.Liquid), value(q, &sat.Vapour)
+			if val >= ql && val <= qv {
+				return mixture(sat, quality(ql, qv, val)), nil
+			}
+		}
+	}
+	return solvedAtP(3, p, q, val, T13, tb)
+}
+
+func ptr(p if97.Props) *if97.Props { return &p }
+
+// quality returns x = (val − ql)/(qv − ql), clamped to [0, 1] against
+// rounding.
+func quality(ql, qv, val float64) float64 {
+	x := (val - ql) / (qv - ql)
+	return math.Max(0, math.Min(1, x))
+}
+
+// solvedAtP solves q(p, T) = val for T in [tLo, tHi] in region r and
+// returns the state.
+func solvedAtP(r int, p float64, q Quantity, val, tLo, tHi float64) (State, error) {
+	pr, ok := solveAtP(r, p, q, val, tLo, tHi)
+	if !ok {
+		return State{}, &InputError{Input: "p," + q.Symbol(), Pair: true, Kind: ErrNoSolution,
+			Detail: "the solve in region " + string(rune('0'+r)) + " did not converge; please report this state"}
+	}
+	return singleState(r, pr), nil
+}
+
+// solveAtP solves q(p, T) = val for T in [tLo, tHi] in region r, starting
+// from the backward equation of the region where IF97 has one, with Newton
+// steps on the forward equation, and a bracketed solve if those fail.
+func solveAtP(r int, p float64, q Quantity, val, tLo, tHi float64) (if97.Props, bool) {
+	if r == 3 {
+		if q == Volume {
+			return solveAtPV3(p, 1/val, tLo, tHi)
+		}
+		return solveAtP3(p, q, val, tLo, tHi)
+	}
+	t0 := backwardT(r, p, q, val)
+	if !(t0 >= tLo && t0 <= tHi) {
+		t0 = (tLo + tHi) / 2
+	}
+	if pr, ok := newton1(r, q, val, p, t0, true); ok && pr.T >= tLo-1e-9 && pr.T <= tHi+1e-9 {
+		return pr, true
+	}
+	f := func(T float64) (float64, float64) {
+		pr := eval(r, p, T)
+		_, d := partials(q, r, &pr)
+		return value(q, &pr) - val, d
+	}
+	flo, _ := f(tLo)
+	fhi, _ := f(tHi)
+	T, ok := rootBracketed(f, tLo, tHi, flo, fhi, t0, 1e-14)
+	return eval(r, p, T), ok
+}
+
+// backwardT returns the backward-equation estimate of T from (p, h) or
+// (p, s) in regions 1 and 2 (R7-97(2012) Eqs. 11, 13, 22–27), or NaN.
+func backwardT(r int, p float64, q Quantity, val float64) float64 {
+	switch {
+	case r == 1 && q == Enthalpy:
+		return if97.Region1TFromPH(p, val)
+	case r == 1 && q == Entropy:
+		return if97.Region1TFromPS(p, val)
+	case r == 2 && q == Enthalpy:
+		return if97.Region2TFromPH(p, val)
+	case r == 2 && q == Entropy:
+		return if97.Region2TFromPS(p, val)
+	}
+	return math.NaN()
+}
+
+// solveAtP3 solves q(p, T) = val in region 3 with T in [tLo, tHi]: start
+// from the SR3-03(2014) backward equations T and v of (p, h) or (p, s),
+// Newton steps in (ρ, T) on the Helmholtz equation, and a bracketed solve in
+// T (with ρ from (p, T)) if those fail.
+func solveAtP3(p float64, q Quantity, val, tLo, tHi float64) (if97.Props, bool) {
+	var t0, v0 float64
+	switch q {
+	case Enthalpy:
+		t0, v0 = if97.Region3TFromPH(p, val), if97.Region3VFromPH(p, val)
+	case Entropy:
+		t0, v0 = if97.Region3TFromPS(p, val), if97.Region3VFromPS(p, val)
+	}
+	if t0 >= tLo && t0 <= tHi && v0 > 0 {
+		pr, ok := newton2(3, Pressure, p, q, val, 1/v0, t0)
+		if ok && pr.T >= tLo-1e-9 && pr.T <= tHi+1e-9 && if97.RegionOf(pr.P, pr.T) == 3 {
+			return pr, true
+		}
+	}
+	f := func(T float64) (float64, float64) {
+		rho, ok := region3Density(p, T)
+		if !ok {
+			return math.NaN(), 0
+		}
+		pr := if97.Region3(rho, T)
+		// (∂q/∂T)_p from the (ρ, T) partials: (∂q/∂T)_ρ − (∂q/∂ρ)_T (∂p/∂T)_ρ/(∂p/∂ρ)_T.
+		dr, dt := partials(q, 3, &pr)
+		dpr, dpt := partials(Pressure, 3, &pr)
+		return value(q, &pr) - val, dt - dr*dpt/dpr
+	}
+	lo, hi := tLo, tHi
+	if p < if97.Pc { // keep the bracket off the saturation temperature
+		ts := if97.SatTemperature(p)
+		if v := quantityAt(q, p, ts+1e-9); val > v {
+			lo = ts + 1e-9
+		} else {
+			hi = ts - 1e-9
+		}
+	}
+	flo, _ := f(lo)
+	fhi, _ := f(hi)
+	T, ok := rootBracketed(f, lo, hi, flo, fhi, t0, 1e-14)
+	if !ok {
+		return if97.Props{}, false
+	}
+	rho, ok := region3Density(p, T)
+	return if97.Region3(rho, T), ok
+}
+
+// solveAtPV3 solves p(ρ, T) = p for T in [tLo, tHi] at fixed ρ in region 3,
+// where p rises with T at constant ρ.
+func solveAtPV3(p, rho, tLo, tHi float64) (if97.Props, bool) {
+	f := func(T float64) (float64, float64) {
+		pr := if97.Region3(rho, T)
+		_, d := partials(Pressure, 3, &pr)
+		return pr.P - p, d
+	}
+	flo, _ := f(tLo)
+	fhi, _ := f(tHi)
+	T, ok := rootBracketed(f, tLo, tHi, flo, fhi, (tLo+tHi)/2, 1e-15)
+	return if97.Region3(rho, T), ok
+}

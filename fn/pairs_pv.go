@@ -1,0 +1,103 @@
+package fn
+
+import (
+	"fmt"
+
+	"steamcell/fn/if97"
+)
+
+// fromPV returns the state at pressure p and specific volume v. In the
+// vapour regions and region 3, v rises with T at constant p. In liquid water
+// below about 277 K it falls (the density maximum), so a v near the smallest
+// liquid volume can fit two temperatures: such a v is refused with
+// ErrTwoSolutions, naming both.
+func fromPV(p, v float64) (State, error) {
+	if err := checkP(p); err != nil {
+		return State{}, err
+	}
+	if err := checkV(v); err != nil {
+		return State{}, err
+	}
+	_, tHi := tRangeAtP(p)
+	if vmax := quantityAt(Volume, p, tHi); v > vmax {
+		return State{}, outOfRange(Volume, v, vmax, "v above %.8g m³/kg, its value at %g K and p = %g MPa", vmax, tHi, p)
+	}
+	vapour := func(tLo float64) (State, error) {
+		if tHi > TMax && v > quantityAt(Volume, p, TMax) {
+			return solvedAtP(5, p, Volume, v, TMax, tHi)
+		}
+		return solvedAtP(2, p, Volume, v, tLo, TMax)
+	}
+	if p < PMinSat {
+		if vmin := quantityAt(Volume, p, TMin); v < vmin {
+			return State{}, outOfRange(Volume, v, vmin, "v below %.8g m³/kg, its value at %g K and p = %g MPa", vmin, TMin, p)
+		}
+		return vapour(TMin)
+	}
+	liquidTop := T13
+	if p <= P13Sat {
+		liquidTop = if97.SatTemperature(p)
+		liq, vap := if97.Region1(p, liquidTop), if97.Region2(p, liquidTop)
+		switch {
+		case v >= liq.V && v <= vap.V:
+			sat := Saturation{P: p, T: liquidTop, Liquid: liq, Vapour: vap}
+			if cold := if97.Region1(p, TMin); v <= cold.V {
+				// Near the density maximum a liquid colder than the
+				// saturation temperature has this v too.
+				a, _ := solveAtP(1, p, Volume, v, TMin, liquidTop)
+				return State{}, &InputError{Input: "p,v", Pair: true, Kind: ErrTwoSolutions, Alternatives: []float64{a.T, liquidTop},
+					Detail: fmt.Sprintf("near the density maximum of water, v = %g m³/kg at p = %g MPa fits liquid at T = %.6g K and a wet mixture at T = %.6g K; give T instead of v", v, p, a.T, liquidTop)}
+			}
+			return mixture(sat, quality(liq.V, vap.V, v)), nil
+		case v > vap.V:
+			return vapour(liquidTop)
+		}
+		return liquidAtPV(p, v, liquidTop)
+	}
+	if v <= quantityAt(Volume, p, T13) {
+		return liquidAtPV(p, v, T13)
+	}
+	tb := if97.B23Temperature(p)
+	if v >= quantityAt(Volume, p, tb) {
+		return vapour(tb)
+	}
+	if p < if97.Pc {
+		if sat, ok := saturationAt(if97.SatTemperature(p)); ok {
+			sat.P = p
+			if v >= sat.Liquid.V && v <= sat.Vapour.V {
+				return mixture(sat, quality(sat.Liquid.V, sat.Vapour.V, v)), nil
+			}
+		}
+	}
+	return solvedAtP(3, p, Volume, v, T13, tb)
+}
+
+// liquidAtPV solves v(p, T) = v in region 1 for T in [273.15 K, tTop],
+// minding the density maximum: where αv < 0 at 273.15 K, v falls with T up to
+// the temperature of maximum density and rises after it.
+func liquidAtPV(p, v, tTop float64) (State, error) {
+	cold := if97.Region1(p, TMin)
+	if cold.AlphaV >= 0 { // no density maximum inside the range at this p
+		if v < cold.V {
+			return State{}, outOfRange(Volume, v, cold.V, "v below %.8g m³/kg, its value at %g K and p = %g MPa", cold.V, TMin, p)
+		}
+		return solvedAtP(1, p, Volume, v, TMin, tTop)
+	}
+	// Temperature of maximum density: αv(p, T) = 0.
+	f := func(T float64) float64 { return if97.Region1(p, T).AlphaV }
+	tmd, ok := rootBrent(f, TMin, 300, cold.AlphaV, f(300), 1e-13)
+	if !ok {
+		return State{}, noConvergence("p,v")
+	}
+	vmin := if97.Region1(p, tmd).V
+	switch {
+	case v < vmin:
+		return State{}, outOfRange(Volume, v, vmin, "v below %.8g m³/kg, the smallest liquid volume at p = %g MPa (at T = %.4g K)", vmin, p, tmd)
+	case v <= cold.V:
+		a, _ := solveAtP(1, p, Volume, v, TMin, tmd)
+		b, _ := solveAtP(1, p, Volume, v, tmd, tTop)
+		return State{}, &InputError{Input: "p,v", Pair: true, Kind: ErrTwoSolutions, Alternatives: []float64{a.T, b.T},
+			Detail: fmt.Sprintf("near the density maximum of water, v = %g m³/kg at p = %g MPa fits T = %.6g K and T = %.6g K; give T instead of v", v, p, a.T, b.T)}
+	}
+	return solvedAtP(1, p, Volume, v, tmd, tTop)
+}

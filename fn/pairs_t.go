@@ -1,0 +1,330 @@
+package fn
+
+import (
+	"fmt"
+	"math"
+	"strings"
+
+	"steamcell/fn/if97"
+)
+
+// checkT checks a temperature given as an input.
+func checkT(T float64) error {
+	switch {
+	case T < TMin:
+		return outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+	case T > TMaxHigh:
+		return outOfRange(Temperature, T, TMaxHigh, "T above %g K", TMaxHigh)
+	}
+	return nil
+}
+
+// checkV checks a specific volume given as an input.
+func checkV(v float64) error {
+	if v <= 0 {
+		return outOfRange(Volume, v, 0, "v must be above 0 m³/kg")
+	}
+	return nil
+}
+
+// pMaxAtT is the highest pressure of the range of validity at T.
+func pMaxAtT(T float64) float64 {
+	if T > TMax {
+		return PMaxHigh
+	}
+	return PMax
+}
+
+// fromTV returns the state at temperature T and specific volume v. Along an
+// isotherm v falls as p rises ((∂v/∂p)_T < 0 for every stable state), so the
+// answer is unique.
+func fromTV(T, v float64) (State, error) {
+	if err := checkT(T); err != nil {
+		return State{}, err
+	}
+	if err := checkV(v); err != nil {
+		return State{}, err
+	}
+	pTop := pMaxAtT(T)
+	tooDense := func() error {
+		vmin := quantityAt(Volume, pTop, T)
+		return outOfRange(Volume, v, vmin, "v below %.8g m³/kg, its value at %g MPa and T = %g K", vmin, pTop, T)
+	}
+	denseOK := func() bool { return v >= quantityAt(Volume, pTop, T) }
+	if T < if97.Tc {
+		sat, ok := saturationAt(T)
+		if !ok {
+			return State{}, noConvergence("t,v")
+		}
+		vl, vv := sat.Liquid.V, sat.Vapour.V
+		switch {
+		case v >= vl && v <= vv:
+			return mixture(sat, quality(vl, vv, v)), nil
+		case T <= T13 && v < vl:
+			if !denseOK() {
+				return State{}, tooDense()
+			}
+			return solvedAtT(1, T, Volume, v, sat.P, pTop)
+		case T <= T13:
+			return solvedAtT(2, T, Volume, v, 0, sat.P)
+		}
+	}
+	switch {
+	case T > TMax:
+		if !denseOK() {
+			return State{}, tooDense()
+		}
+		return solvedAtT(5, T, Volume, v, 0, pTop)
+	case T > if97.B23Temperature(PMax):
+		if !denseOK() {
+			return State{}, tooDense()
+		}
+		return solvedAtT(2, T, Volume, v, 0, pTop)
+	}
+	// 623.15 K < T ≤ 863.15 K: region 3 above the B23 line, where p follows
+	// from ρ directly, region 2 below it.
+	pb := if97.B23Pressure(T)
+	pr := if97.Region3(1/v, T)
+	switch {
+	case pr.P > pTop:
+		return State{}, tooDense()
+	case pr.P >= pb:
+		return singleState(3, pr), nil
+	}
+	return solvedAtT(2, T, Volume, v, 0, pb)
+}
+
+// solvedAtT solves q(p, T) = val for p in (pLo, pHi] in the Gibbs region r
+// at fixed T and returns the state. q must be monotonic in p there.
+func solvedAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (State, error) {
+	pr, ok := solveAtT(r, T, q, val, pLo, pHi)
+	if !ok {
+		return State{}, noConvergence("t," + q.Symbol())
+	}
+	return singleState(r, pr), nil
+}
+
+// solveAtT solves q(p, T) = val for p in (pLo, pHi] in Gibbs region r by a
+// bracketed Newton solve in ln p; the start is the ideal-gas pressure for v
+// in the vapour regions.
+func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, bool) {
+	lo := math.Log(math.Max(pLo, 1e-12))
+	hi := math.Log(pHi)
+	f := func(lp float64) (float64, float64) {
+		p := math.Exp(lp)
+		pr := eval(r, p, T)
+		dp, _ := partials(q, r, &pr)
+		return value(q, &pr) - val, dp * p
+	}
+	x0 := (lo + hi) / 2
+	if q == Volume && r != 1 {
+		x0 = math.Log(if97.R * T / (mpaM3 * val))
+	}
+	flo, _ := f(lo)
+	fhi, _ := f(hi)
+	lp, ok := rootBracketed(f, lo, hi, flo, fhi, x0, 1e-15)
+	if !ok {
+		return if97.Props{}, false
+	}
+	return eval(r, math.Exp(lp), T), true
+}
+
+func noConvergence(pair string) error {
+	return &InputError{Input: pair, Pair: true, Kind: ErrNoSolution,
+		Detail: "the solve did not converge; please report these inputs"}
+}
+
+// branch is a stretch of an isotherm inside one region: the native variable
+// a (p for regions 1, 2 and 5, ρ for region 3) runs from lo to hi.
+type branch struct {
+	r      int
+	lo, hi float64
+	log    bool // sample a on a log scale
+}
+
+// isothermBranches returns the single-phase stretches of the isotherm T
+// inside the range of validity, and the saturation state if T < Tc.
+func isothermBranches(T float64) ([]branch, *Saturation, bool) {
+	pTop := pMaxAtT(T)
+	const pFloor = 1e-12 // MPa: states at lower pressure are not searched
+	switch {
+	case T > TMax:
+		return []branch{{5, pFloor, pTop, true}}, nil, true
+	case T <= T13:
+		sat, ok := saturationAt(T)
+		return []branch{{2, pFloor, sat.P, true}, {1, sat.P, pTop, true}}, &sat, ok
+	case T > if97.B23Temperature(PMax):
+		return []branch{{2, pFloor, pTop, true}}, nil, true
+	}
+	pb := if97.B23Pressure(T)
+	rhoB, ok1 := region3Density(pb, T)
+	rhoTop, ok2 := region3Density(pTop, T)
+	bs := []branch{{2, pFloor, pb, true}}
+	if T >= if97.Tc {
+		return append(bs, branch{3, rhoB, rhoTop, false}), nil, ok1 && ok2
+	}
+	sat, ok := saturationAt(T)
+	if sat.Vapour.Rho > rhoB {
+		bs = append(bs, branch{3, rhoB, sat.Vapour.Rho, false})
+	}
+	return append(bs, branch{3, sat.Liquid.Rho, rhoTop, false}), &sat, ok && ok1 && ok2
+}
+
+// fromTQ returns the state at temperature T and q = in.Value, q being h or
+// s. Along an isotherm neither need be monotonic (h rises with p in cold
+// liquid and falls in hot; s rises with p in water below about 277 K, where
+// its expansion coefficient is negative), so each stretch of the isotherm
+// is sampled and every crossing refined; two or more answers are refused
+// with ErrTwoSolutions, naming them.
+func fromTQ(T float64, in Input) (State, error) {
+	q, val := in.Q, in.Value
+	if err := checkT(T); err != nil {
+		return State{}, err
+	}
+	bs, sat, ok := isothermBranches(T)
+	if !ok {
+		return State{}, noConvergence("t," + q.Symbol())
+	}
+	var found []State
+	if sat != nil {
+		ql, qv := value(q, &sat.Liquid), value(q, &sat.Vapour)
+		if val >= ql && val <= qv {
+			found = append(found, mixture(*sat, quality(ql, qv, val)))
+		}
+	}
+	qMin, qMax := math.Inf(1), math.Inf(-1)
+	for _, b := range bs {
+		f := func(a float64) float64 {
+			pr := eval(b.r, a, T)
+			return value(q, &pr) - val
+		}
+		for _, br := range crossings(f, b.lo, b.hi, b.log, &qMin, &qMax) {
+			a, ok := rootBrent(f, br[0], br[1], f(br[0]), f(br[1]), 1e-15)
+			if !ok {
+				continue
+			}
+			pr := eval(b.r, a, T)
+			if !seen(found, pr.P) {
+				found = append(found, singleState(b.r, pr))
+			}
+		}
+	}
+	qMin, qMax = qMin+val, qMax+val
+	switch len(found) {
+	case 0:
+		return State{}, outOfRangeAlongIsotherm(q, val, T, qMin, qMax)
+	case 1:
+		return found[0], nil
+	}
+	var alts []string
+	var ps []float64
+	for _, s := range found {
+		alts = append(alts, fmt.Sprintf("p = %.6g MPa (%s)", s.P, s.Phase))
+		ps = append(ps, s.P)
+	}
+	return State{}, &InputError{Input: "t," + q.Symbol(), Pair: true, Kind: ErrTwoSolutions, Alternatives: ps,
+		Detail: fmt.Sprintf("at T = %g K, %s = %g %s fits %s; give p instead of T", T, q.Symbol(), val, q.BaseUnit(), strings.Join(alts, " and "))}
+}
+
+// seen reports whether a state at pressure p is already in found (the same
+// state reached from two regions at their common boundary).
+func seen(found []State, p float64) bool {
+	for _, s := range found {
+		if math.Abs(s.P-p) <= 1e-9*p && !s.HasX {
+			return true
+		}
+	}
+	return false
+}
+
+func outOfRangeAlongIsotherm(q Quantity, val, T, qMin, qMax float64) error {
+	lim, side := qMin, "below"
+	if val > qMax {
+		lim, side = qMax, "above"
+	}
+	return outOfRange(q, val, lim, "%s %s %.8g %s, its %s value along the isotherm T = %g K within the range of validity",
+		q.Symbol(), side, lim, q.BaseUnit(), map[string]string{"below": "lowest", "above": "highest"}[side], T)
+}
+
+// crossings samples f on [lo, hi] (on a log scale if logScale) and returns
+// brackets [a, b] with f(a)·f(b) ≤ 0, one per sign change. Where the samples
+// show a local extremum, the extremum is located by golden-section search
+// (Kiefer 1953) and, if f changes sign there, the interval is split at it,
+// so that two roots between neighbouring samples are not missed. fMin and
+// fMax are lowered and raised to the extreme values of f seen.
+func crossings(f func(float64) float64, lo, hi float64, logScale bool, fMin, fMax *float64) [][2]float64 {
+	const n = 64
+	var xs, fs [n + 1]float64
+	for i := range xs {
+		t := float64(i) / n
+		if logScale {
+			xs[i] = lo * math.Pow(hi/lo, t)
+		} else {
+			xs[i] = lo + (hi-lo)*t
+		}
+		fs[i] = f(xs[i])
+	}
+	// Refine each interior extremum into a point of its own.
+	type pt struct{ x, f float64 }
+	pts := make([]pt, 0, n+8)
+	for i := range xs {
+		pts = append(pts, pt{xs[i], fs[i]})
+		if i == 0 || i == n {
+			continue
+		}
+		isMin := fs[i] < fs[i-1] && fs[i] <= fs[i+1]
+		isMax := fs[i] > fs[i-1] && fs[i] >= fs[i+1]
+		if !isMin && !isMax {
+			continue
+		}
+		sign := 1.0
+		if isMax {
+			sign = -1
+		}
+		xe := goldenMin(func(x float64) float64 { return sign * f(x) }, xs[i-1], xs[i+1])
+		pts = append(pts, pt{xe, f(xe)})
+	}
+	sortPts := func() {
+		for i := 1; i < len(pts); i++ {
+			for j := i; j > 0 && pts[j].x < pts[j-1].x; j-- {
+				pts[j], pts[j-1] = pts[j-1], pts[j]
+			}
+		}
+	}
+	sortPts()
+	var out [][2]float64
+	for i := range pts {
+		*fMin, *fMax = math.Min(*fMin, pts[i].f), math.Max(*fMax, pts[i].f)
+		if i == 0 {
+			continue
+		}
+		a, b := pts[i-1], pts[i]
+		if a.f == 0 && i > 1 {
+			continue // counted as the end of the previous interval
+		}
+		if a.f*b.f <= 0 && a.x < b.x {
+			out = append(out, [2]float64{a.x, b.x})
+		}
+	}
+	return out
+}
+
+// goldenMin returns the x in [a, b] that minimises f, by golden-section
+// search to a relative width of 1e-12.
+func goldenMin(f func(float64) float64, a, b float64) float64 {
+	const g = 0.6180339887498949 // (√5 − 1)/2
+	c, d := b-g*(b-a), a+g*(b-a)
+	fc, fd := f(c), f(d)
+	for i := 0; i < 200 && b-a > 1e-12*math.Abs(b); i++ {
+		if fc < fd {
+			b, d, fd = d, c, fc
+			c = b - g*(b-a)
+			fc = f(c)
+		} else {
+			a, c, fc = c, d, fd
+			d = a + g*(b-a)
+			fd = f(d)
+		}
+	}
+	return (a + b) / 2
+}

@@ -1,0 +1,64 @@
+package fn
+
+import "steamcell/fn/if97"
+
+// Phase is the phase of a state in the trade's words.
+type Phase int
+
+// The phases. The exact boundaries are in the package documentation.
+const (
+	CompressedLiquid   Phase = iota + 1 // liquid below its boiling point at its pressure
+	SaturatedLiquid                     // on the saturation line, x = 0
+	SaturatedMixture                    // two phases, 0 < x < 1
+	SaturatedVapour                     // on the saturation line, x = 1
+	SuperheatedVapour                   // vapour above its saturation temperature
+	SupercriticalFluid                  // p ≥ pc and T ≥ Tc
+)
+
+var phaseNames = [...]string{
+	CompressedLiquid:   "compressed liquid",
+	SaturatedLiquid:    "saturated liquid",
+	SaturatedMixture:   "saturated mixture",
+	SaturatedVapour:    "saturated vapour",
+	SuperheatedVapour:  "superheated vapour",
+	SupercriticalFluid: "supercritical fluid",
+}
+
+// String returns the phase in words, e.g. "superheated vapour".
+func (ph Phase) String() string {
+	if ph < CompressedLiquid || ph > SupercriticalFluid {
+		return "unknown"
+	}
+	return phaseNames[ph]
+}
+
+// TwoPhase reports whether the phase lies on the saturation line.
+func (ph Phase) TwoPhase() bool {
+	return ph == SaturatedLiquid || ph == SaturatedMixture || ph == SaturatedVapour
+}
+
+// singlePhase classifies a single-phase state at p (MPa) and T (K) by the
+// boundaries in the package documentation.
+func singlePhase(p, T float64) Phase {
+	switch {
+	case p >= if97.Pc && T >= if97.Tc:
+		return SupercriticalFluid
+	case T >= if97.Tc:
+		return SuperheatedVapour
+	case p >= if97.Pc || p > if97.SatPressure(T):
+		return CompressedLiquid
+	default:
+		return SuperheatedVapour
+	}
+}
+
+// twoPhase classifies a state on the saturation line with quality x.
+func twoPhase(x float64) Phase {
+	switch x {
+	case 0:
+		return SaturatedLiquid
+	case 1:
+		return SaturatedVapour
+	}
+	return SaturatedMixture
+}

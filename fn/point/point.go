@@ -1,0 +1,280 @@
+package point
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+
+	"steamcell/fn"
+	"steamcell/fn/units"
+)
+
+// Kinds of point error (besides the *units.InputError and *fn.InputError
+// that Read and Solve pass on).
+var (
+	// ErrInputCount: not exactly two inputs.
+	ErrInputCount = errors.New("two inputs needed")
+	// ErrUnknownInput: an input name that is no property one can give.
+	ErrUnknownInput = errors.New("unknown input")
+	// ErrUnknownProperty: an output property that does not exist.
+	ErrUnknownProperty = errors.New("unknown property")
+	// ErrUndefined: a property asked for by name has no value for this
+	// state (cp of a saturated mixture, x of superheated vapour).
+	ErrUndefined = errors.New("not defined for this state")
+)
+
+// Error is a problem with a point as given: which parameter, what kind,
+// and a message saying what to change.
+type Error struct {
+	Param string // the input or property name concerned; may be empty
+	Kind  error
+	Msg   string
+}
+
+func (e *Error) Error() string { return e.Msg }
+
+// Unwrap returns the kind.
+func (e *Error) Unwrap() error { return e.Kind }
+
+// inputNames maps the names a user may give an input by (lower case) to the
+// quantity.
+var inputNames = map[string]fn.Quantity{
+	"p": fn.Pressure, "pressure": fn.Pressure,
+	"t": fn.Temperature, "temp": fn.Temperature, "temperature": fn.Temperature,
+	"h": fn.Enthalpy, "enthalpy": fn.Enthalpy,
+	"s": fn.Entropy, "entropy": fn.Entropy,
+	"v": fn.Volume, "specific volume": fn.Volume, "volume": fn.Volume,
+	"rho": fn.Density, "ρ": fn.Density, "density": fn.Density,
+	"u": fn.InternalEnergy, "internal energy": fn.InternalEnergy,
+	"x": fn.Quality, "quality": fn.Quality, "dryness": fn.Quality, "dryness fraction": fn.Quality,
+}
+
+// InputQuantity returns the quantity an input name stands for ("p", "T",
+// "pressure", "quality", …; case-insensitive).
+func InputQuantity(name string) (fn.Quantity, bool) {
+	q, ok := inputNames[strings.ToLower(strings.TrimSpace(name))]
+	return q, ok
+}
+
+// InputNames returns the short input names: p, t, h, s, v, rho, u, x.
+func InputNames() []string { return []string{"p", "t", "h", "s", "v", "rho", "u", "x"} }
+
+// DimOf returns the units quantity of an input quantity.
+func DimOf(q fn.Quantity) units.Dim {
+	switch q {
+	case fn.Pressure:
+		return units.Pressure
+	case fn.Temperature:
+		return units.Temperature
+	case fn.Enthalpy, fn.InternalEnergy:
+		return units.SpecificEnergy
+	case fn.Entropy:
+		return units.SpecificEntropy
+	case fn.Volume:
+		return units.SpecificVolume
+	case fn.Density:
+		return units.Density
+	case fn.Quality:
+		return units.Quality
+	}
+	return 0
+}
+
+// Given is one input as a user gave it.
+type Given struct {
+	Name string // as typed: "p", "T", "pressure"
+	Text string // the value with an optional unit: "6 barg", "330C", "0.9"
+	Unit string // a unit given apart from the text (a column header, unit_p=); may be empty
+}
+
+// Options are the user's choices that apply to a whole point.
+type Options struct {
+	Set  units.Set // units of bare numbers and of the answer; the zero Set is "si"
+	Patm float64   // atmospheric pressure for gauge units, MPa; 0 is the standard atmosphere
+}
+
+// Read turns exactly two given inputs into the engine's inputs.
+func Read(given []Given, opt Options) ([2]fn.Input, error) {
+	var out [2]fn.Input
+	if len(given) != 2 {
+		var names []string
+		for _, g := range given {
+			names = append(names, g.Name)
+		}
+		msg := fmt.Sprintf("give exactly two inputs out of %s; got %d", strings.Join(InputNames(), ", "), len(given))
+		if len(names) > 0 {
+			msg += " (" + strings.Join(names, ", ") + ")"
+		}
+		return out, &Error{Kind: ErrInputCount, Msg: msg}
+	}
+	for i, g := range given {
+		q, ok := InputQuantity(g.Name)
+		if !ok {
+			return out, &Error{Param: g.Name, Kind: ErrUnknownInput,
+				Msg: fmt.Sprintf("%s is not an input; inputs are %s", quote(g.Name), strings.Join(InputNames(), ", "))}
+		}
+		v, err := units.Parse(g.Text, DimOf(q), units.Options{Name: g.Name, Unit: g.Unit, Set: opt.Set, Patm: opt.Patm})
+		if err != nil {
+			return out, err
+		}
+		out[i] = fn.Input{Q: q, Value: v}
+	}
+	if out[0].Q == out[1].Q {
+		return out, &Error{Param: given[1].Name, Kind: ErrInputCount,
+			Msg: fmt.Sprintf("%s and %s are the same property; give two different ones", given[0].Name, given[1].Name)}
+	}
+	return out, nil
+}
+
+// Solve reads two given inputs and solves the state.
+func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
+	in, err := Read(given, opt)
+	if err != nil {
+		return fn.State{}, in, err
+	}
+	st, err := fn.Solve(in[0], in[1])
+	return st, in, err
+}
+
+// quote quotes a name for a message, keeping invalid UTF-8 and control
+// characters out of it.
+func quote(s string) string {
+	if len(s) > 40 {
+		s = s[:40] + "…"
+	}
+	if !utf8.ValidString(s) {
+		s = strings.ToValidUTF8(s, "?")
+	}
+	return strconv.Quote(s)
+}
+
+// Field is one property of an answer, in the user's units.
+type Field struct {
+	Symbol  string
+	Name    string
+	Value   float64 // in Unit; meaningful when Defined
+	Unit    string  // label of the unit; "" for a pure number
+	Defined bool
+}
+
+// Answer is a solved state written in the user's units.
+type Answer struct {
+	Phase    string
+	Region   int
+	Fields   []Field
+	Units    map[string]string // symbol → unit label of every field
+	Warnings []string
+	Set      string // name of the unit set
+}
+
+// Formulation is the name of the formulation every answer comes from.
+const Formulation = "IAPWS-IF97"
+
+// Symbols checks a list of property symbols (e.g. from get=h,s) and returns
+// them in canonical form; "all" stands for every property. An empty list
+// gives nil, which Render reads as the default properties.
+func Symbols(list []string) ([]string, error) {
+	if len(list) == 0 {
+		return nil, nil
+	}
+	out := make([]string, 0, len(list))
+	for _, s := range list {
+		s = strings.TrimSpace(s)
+		if s == "" {
+			continue
+		}
+		if strings.EqualFold(s, "all") {
+			for _, p := range catalogue {
+				out = append(out, p.Symbol)
+			}
+			continue
+		}
+		p, ok := Lookup(s)
+		if !ok {
+			return nil, &Error{Param: s, Kind: ErrUnknownProperty,
+				Msg: fmt.Sprintf("%s is not a property; properties are %s", quote(s), strings.Join(allSymbols(), ", "))}
+		}
+		out = append(out, p.Symbol)
+	}
+	if len(out) == 0 {
+		return nil, nil
+	}
+	return out, nil
+}
+
+func allSymbols() []string {
+	var s []string
+	for _, p := range catalogue {
+		s = append(s, p.Symbol)
+	}
+	return s
+}
+
+// Render writes state st as the properties syms (checked by Symbols) in the
+// units of opt.Set. Properties asked for that have no value for this state
+// are returned with Defined false. With syms nil, Render gives the default
+// properties that have a value here (DefaultSymbols). Warnings of the state
+// and of its transport properties (when asked for) are passed on.
+func Render(st *fn.State, syms []string, opt Options) Answer {
+	w := &view{st: st}
+	defaults := syms == nil
+	if defaults {
+		syms = defaultSymbols
+	}
+	a := Answer{Phase: st.Phase.String(), Region: st.Region, Units: map[string]string{}, Set: opt.Set.Name()}
+	a.Warnings = append(a.Warnings, st.Warnings...)
+	for _, sym := range syms {
+		p, _ := Lookup(sym)
+		if p.get == nil {
+			continue
+		}
+		v, ok := p.get(w)
+		u := opt.Set.Unit(p.Dim)
+		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: u.Name, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
+		if defaults && !f.Defined {
+			continue
+		}
+		if f.Defined {
+			f.Value = u.FromBase(v, opt.Patm)
+		}
+		a.Fields = append(a.Fields, f)
+		a.Units[p.Symbol] = u.Name
+	}
+	a.Warnings = append(a.Warnings, w.trWarn...)
+	if w.sigmaWarn != "" {
+		a.Warnings = append(a.Warnings, w.sigmaWarn)
+	}
+	return a
+}
+
+// Value returns the field of symbol sym, or an error saying why it has no
+// value for this state.
+func (a *Answer) Value(sym string) (Field, error) {
+	for _, f := range a.Fields {
+		if f.Symbol == sym {
+			if !f.Defined {
+				return f, &Error{Param: sym, Kind: ErrUndefined,
+					Msg: fmt.Sprintf("%s (%s) is not defined for this state (%s)", sym, f.Name, a.Phase)}
+			}
+			return f, nil
+		}
+	}
+	return Field{}, &Error{Param: sym, Kind: ErrUnknownProperty, Msg: fmt.Sprintf("%s was not computed", quote(sym))}
+}
+
+// UnitsUsed returns the unit labels of the answer sorted by symbol, for
+// stable output.
+func (a *Answer) UnitsUsed() []string {
+	keys := make([]string, 0, len(a.Units))
+	for k := range a.Units {
+		keys = append(keys, k)
+	}
+	sort.Strings(keys)
+	return keys
+}
+
+func equalFold(a, b string) bool { return strings.EqualFold(a, b) }

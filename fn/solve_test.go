@@ -1,0 +1,156 @@
+package fn
+
+import (
+	"errors"
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"steamcell/fn/if97"
+)
+
+// randomStates returns n single-phase states spread over every region of
+// the range of validity, drawn from (p, T) with a fixed seed. The draw is
+// uniform in ln p and in T, region by region, so that region 3 and region 5
+// get their share.
+func randomStates(t testing.TB, n int, seed uint64) []State {
+	t.Helper()
+	rng := rand.New(rand.NewPCG(seed, 7))
+	boxes := []struct{ pLo, pHi, tLo, tHi float64 }{
+		{1e-3, 100, TMin, T13},     // regions 1 and 2 at low T
+		{1e-3, 100, T13, 863.15},   // regions 2 and 3
+		{1e-3, 100, 863.15, TMax},  // region 2 at high T
+		{1e-3, 50, TMax, TMaxHigh}, // region 5
+		{16.5, 30, 640, 660},       // near the critical point
+		{1e-5, 1e-2, TMin, 400},    // low pressure vapour
+		{20, 100, T13, 750},        // dense region 3
+	}
+	var out []State
+	for len(out) < n {
+		b := boxes[len(out)%len(boxes)]
+		p := math.Exp(math.Log(b.pLo) + rng.Float64()*(math.Log(b.pHi)-math.Log(b.pLo)))
+		T := b.tLo + rng.Float64()*(b.tHi-b.tLo)
+		st, err := FromPT(p, T)
+		if err != nil {
+			continue // outside the range (p above 50 MPa in region 5 boxes) or on saturation
+		}
+		out = append(out, st)
+	}
+	return out
+}
+
+// TestRoundTripAllPairs solves each pair of every random state back to the
+// state and checks that p and T come back to 1e-7 relative. Identity
+// check: the pairs must invert FromPT (common practice for property
+// software, no source).
+func TestRoundTripAllPairs(t *testing.T) {
+	n := 10000
+	if testing.Short() {
+		n = 1000
+	}
+	states := randomStates(t, n, 1)
+	type pairOf func(s *State) (Input, Input)
+	pairs := []struct {
+		name string
+		in   pairOf
+		// twoOK: the pair may honestly have two solutions for some states
+		// (see fromTQ, liquidAtPV); those must be refused with ErrTwoSolutions.
+		twoOK bool
+	}{
+		{"p,h", func(s *State) (Input, Input) { return Input{Pressure, s.P}, Input{Enthalpy, s.H} }, false},
+		{"p,s", func(s *State) (Input, Input) { return Input{Pressure, s.P}, Input{Entropy, s.S} }, false},
+		{"h,s", func(s *State) (Input, Input) { return Input{Enthalpy, s.H}, Input{Entropy, s.S} }, false},
+		{"p,v", func(s *State) (Input, Input) { return Input{Pressure, s.P}, Input{Volume, s.V} }, true},
+		{"p,rho", func(s *State) (Input, Input) { return Input{Density, s.Rho}, Input{Pressure, s.P} }, true},
+		{"t,v", func(s *State) (Input, Input) { return Input{Temperature, s.T}, Input{Volume, s.V} }, false},
+		{"t,h", func(s *State) (Input, Input) { return Input{Temperature, s.T}, Input{Enthalpy, s.H} }, true},
+		{"t,s", func(s *State) (Input, Input) { return Input{Temperature, s.T}, Input{Entropy, s.S} }, true},
+		{"u,v", func(s *State) (Input, Input) { return Input{InternalEnergy, s.U}, Input{Volume, s.V} }, false},
+	}
+	for _, pc := range pairs {
+		t.Run(pc.name, func(t *testing.T) {
+			fails, twos := 0, 0
+			for i := range states {
+				want := &states[i]
+				a, b := pc.in(want)
+				got, err := Solve(a, b)
+				if err != nil {
+					var ie *InputError
+					if pc.twoOK && errors.As(err, &ie) && errors.Is(err, ErrTwoSolutions) {
+						// The refusal must name the original state among those that fit.
+						twos++
+						named := false
+						for _, alt := range ie.Alternatives {
+							named = named || scalar.EqualWithinRel(alt, want.P, 1e-7) || scalar.EqualWithinRel(alt, want.T, 1e-7)
+						}
+						if !named {
+							fails++
+							t.Errorf("%s from p=%.12g MPa, T=%.12g K: refused as two solutions without naming it: %v", pc.name, want.P, want.T, err)
+						}
+						continue
+					}
+					fails++
+					if fails <= 5 {
+						t.Errorf("%s from p=%.12g MPa, T=%.12g K (region %d): %v", pc.name, want.P, want.T, want.Region, err)
+					}
+					continue
+				}
+				if !scalar.EqualWithinRel(got.P, want.P, 1e-7) || !scalar.EqualWithinRel(got.T, want.T, 1e-7) {
+					fails++
+					if fails <= 5 {
+						t.Errorf("%s from p=%.12g MPa, T=%.12g K (region %d): got p=%.12g, T=%.12g (region %d)",
+							pc.name, want.P, want.T, want.Region, got.P, got.T, got.Region)
+					}
+				}
+			}
+			if fails > 0 {
+				t.Errorf("%s: %d of %d states failed", pc.name, fails, len(states))
+			}
+			t.Logf("%s: %d states, %d refused as two solutions", pc.name, len(states), twos)
+		})
+	}
+}
+
+// TestRoundTripTwoPhase solves wet states back from every pair that can
+// reach them: (p,x), (T,x), (p,h), (p,s), (h,s), (p,v), (T,v), (T,h), (T,s),
+// (u,v). Identity check, no source.
+func TestRoundTripTwoPhase(t *testing.T) {
+	rng := rand.New(rand.NewPCG(2, 9))
+	n := 2000
+	if testing.Short() {
+		n = 200
+	}
+	for i := 0; i < n; i++ {
+		T := TMin + rng.Float64()*(if97.Tc-0.5-TMin)
+		x := rng.Float64()
+		want, err := FromTX(T, x)
+		if err != nil {
+			t.Fatalf("FromTX(%g, %g): %v", T, x, err)
+		}
+		for _, in := range [][2]Input{
+			{{Pressure, want.P}, {Quality, x}},
+			{{Pressure, want.P}, {Enthalpy, want.H}},
+			{{Pressure, want.P}, {Entropy, want.S}},
+			{{Enthalpy, want.H}, {Entropy, want.S}},
+			{{Pressure, want.P}, {Volume, want.V}},
+			{{Temperature, T}, {Volume, want.V}},
+			{{Temperature, T}, {Enthalpy, want.H}},
+			{{Temperature, T}, {Entropy, want.S}},
+			{{InternalEnergy, want.U}, {Volume, want.V}},
+		} {
+			got, err := Solve(in[0], in[1])
+			if err != nil {
+				if errors.Is(err, ErrTwoSolutions) && in[0].Q == Temperature {
+					continue // cold liquid overlaps the wet region in (T,h), (T,s)
+				}
+				t.Errorf("Solve(%v, %v) from T=%.10g K, x=%.6g: %v", in[0], in[1], T, x, err)
+				continue
+			}
+			if !got.HasX || !scalar.EqualWithinRel(got.T, T, 1e-7) || !scalar.EqualWithinAbs(got.X, x, 1e-6) {
+				t.Errorf("Solve(%v, %v) from T=%.10g K, x=%.6g: got T=%.10g, x=%.8g, phase %v", in[0], in[1], T, x, got.T, got.X, got.Phase)
+			}
+		}
+	}
+}

@@ -1,0 +1,146 @@
+package fn
+
+import (
+	"fmt"
+	"math"
+
+	"steamcell/fn/if97"
+)
+
+// Limits of the range of validity of IAPWS-IF97, R7-97(2012) section 4.
+const (
+	TMin      = 273.15  // K, lowest temperature of regions 1 and 2
+	TMax      = 1073.15 // K, highest temperature of regions 1 to 3; start of region 5
+	TMaxHigh  = 2273.15 // K, highest temperature of region 5
+	PMax      = 100.0   // MPa, highest pressure of regions 1 to 3
+	PMaxHigh  = 50.0    // MPa, highest pressure of region 5
+	T13       = 623.15  // K, boundary between regions 1 and 3
+	nearSatK  = 0.5     // K, single-phase states closer than this to saturation get a warning
+	nearCritK = 2.0     // K, states this close to Tc (and near pc) get a warning
+	nearCritP = 1.0     // MPa
+)
+
+// State is a state of water or steam: every property of IF97 in base units,
+// with the phase, the region and, on the saturation line, the quality and the
+// saturated-liquid and saturated-vapour properties.
+//
+// For a saturated mixture (0 < x < 1) the embedded Props hold the mixture's
+// p, T, v, ρ, u, h, s, g and f; Cp, Cv, W, Kappa, AlphaV and KappaT have no
+// meaning for a mixture and are zero (see Defined). For saturated liquid or
+// vapour (x = 0 or 1) every property is that of the saturated phase.
+type State struct {
+	if97.Props
+	Phase  Phase
+	Region int     // IF97 region: 1, 2, 3, 5, or 4 on the saturation line
+	X      float64 // quality, vapour mass fraction; meaningful when HasX
+	HasX   bool    // the state lies on the saturation line
+
+	// Liquid and Vapour are the saturated-liquid and saturated-vapour states
+	// at the state's saturation temperature; set when HasX.
+	Liquid, Vapour if97.Props
+
+	// Warnings are short sentences for the user: nearness to saturation or
+	// to the critical point, a choice between two solutions.
+	Warnings []string
+}
+
+// Defined reports whether the single-phase derivative properties (Cp, Cv,
+// W, Kappa, AlphaV, KappaT) are defined for s: false only for a saturated
+// mixture.
+func (s *State) Defined() bool { return s.Phase != SaturatedMixture }
+
+// checkFinite refuses NaN and infinite inputs.
+func checkFinite(in ...Input) error {
+	for _, i := range in {
+		if math.IsNaN(i.Value) || math.IsInf(i.Value, 0) {
+			return notFinite(i.Q, i.Value)
+		}
+	}
+	return nil
+}
+
+// checkPT checks (p, T) against the range of validity and returns the region
+// of a single-phase state there (1, 2, 3 or 5). The errors name p or T.
+func checkPT(p, T float64) (int, error) {
+	switch {
+	case p <= 0:
+		return 0, outOfRange(Pressure, p, 0, "p must be above 0 MPa (absolute)")
+	case T < TMin:
+		return 0, outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+	case T > TMaxHigh:
+		return 0, outOfRange(Temperature, T, TMaxHigh, "T above %g K", TMaxHigh)
+	case p > PMax:
+		return 0, outOfRange(Pressure, p, PMax, "p above %g MPa", PMax)
+	case T > TMax && p > PMaxHigh:
+		return 0, outOfRange(Pressure, p, PMaxHigh, "p above %g MPa at T above %g K", PMaxHigh, TMax)
+	}
+	return if97.RegionOf(p, T), nil
+}
+
+// FromPT returns the state at pressure p (MPa) and temperature T (K).
+//
+// On the saturation line (T ≤ Tc and p = ps(T)) p and T do not fix the state:
+// FromPT refuses it with ErrOnSaturation. IF97 region 3 is solved for ρ from
+// (p, T) with the backward equations of SR5-05(2016), polished with Newton
+// steps on the forward equation.
+func FromPT(p, T float64) (State, error) {
+	if err := checkFinite(Input{Pressure, p}, Input{Temperature, T}); err != nil {
+		return State{}, err
+	}
+	r, err := checkPT(p, T)
+	if err != nil {
+		return State{}, err
+	}
+	if T <= if97.Tc && p == if97.SatPressure(T) {
+		return State{}, &InputError{Input: "p,t", Pair: true, Kind: ErrOnSaturation,
+			Detail: fmt.Sprintf("at T = %g K the saturation pressure is %g MPa; give x, h or s as the second input", T, p)}
+	}
+	pr, err := evalPT(r, p, T)
+	if err != nil {
+		return State{}, err
+	}
+	return singleState(r, pr), nil
+}
+
+// evalPT computes the properties of a single-phase state in region r.
+func evalPT(r int, p, T float64) (if97.Props, error) {
+	switch r {
+	case 1:
+		return if97.Region1(p, T), nil
+	case 2:
+		return if97.Region2(p, T), nil
+	case 5:
+		return if97.Region5(p, T), nil
+	}
+	rho, ok := region3Density(p, T)
+	if !ok {
+		return if97.Props{}, &InputError{Input: "p,t", Pair: true, Kind: ErrNoSolution,
+			Detail: fmt.Sprintf("the region-3 density at p = %g MPa, T = %g K did not converge", p, T)}
+	}
+	pr := if97.Region3(rho, T)
+	pr.P = p // equal to rounding after the Newton polish; keep the input exactly
+	return pr, nil
+}
+
+// singleState wraps the properties of a single-phase state with its phase,
+// region and warnings.
+func singleState(r int, pr if97.Props) State {
+	s := State{Props: pr, Region: r, Phase: singlePhase(pr.P, pr.T)}
+	s.Warnings = warnings(&s)
+	return s
+}
+
+// warnings returns the cautions that apply to s.
+func warnings(s *State) []string {
+	var w []string
+	if !s.HasX && s.P < if97.Pc {
+		ts := if97.SatTemperature(s.P)
+		if d := math.Abs(s.T - ts); d < nearSatK {
+			w = append(w, fmt.Sprintf("within %g K of saturation (Ts = %.3f K at this pressure): a small error in p or T puts the point in the other phase", nearSatK, ts))
+		}
+	}
+	if math.Abs(s.T-if97.Tc) < nearCritK && math.Abs(s.P-if97.Pc) < nearCritP {
+		w = append(w, "near the critical point, where IF97 is least accurate and properties change steeply")
+	}
+	return w
+}
