@@ -244,8 +244,8 @@ func validSpan(f func(float64) float64, lo, hi float64) (a, b float64, ok bool) 
 
 // satLineApprox returns the enthalpy of the saturation line at entropy s by
 // the boundary equations of SR4-04(2014): h'1(s), h'3(s) on the liquid side
-// (s up to s'(623.15 K) = 3.778281340 and up to sc), h''2c3b(s) and
-// h''2ab(s) on the vapour side (from sc to 5.85 and above).
+// (s up to s'(623.15 K) = 3.778281340 and up to sc), h”2c3b(s) and
+// h”2ab(s) on the vapour side (from sc to 5.85 and above).
 func satLineApprox(s float64) float64 {
 	switch {
 	case s <= 3.778281340:

@@ -57,7 +57,7 @@ func TestHandbookSinglePhase(t *testing.T) {
 	}{
 		{1, 573.15, 0.25799, 3051.6, 7.1246, SuperheatedVapour},   // 1 MPa, 300 °C
 		{10, 773.15, 0.032811, 3375.1, 6.5995, SuperheatedVapour}, // 10 MPa, 500 °C
-		{4, 673.15, 0.07343, 3214.5, 6.7714, SuperheatedVapour},  // 4 MPa, 400 °C
+		{4, 673.15, 0.07343, 3214.5, 6.7714, SuperheatedVapour},   // 4 MPa, 400 °C
 	} {
 		st, err := FromPT(tc.p, tc.T)
 		if err != nil {
@@ -154,7 +154,7 @@ func TestInputErrors(t *testing.T) {
 }
 
 // Clausius–Clapeyron along the whole saturation line: dps/dT from
-// R7-97(2012) Eq. 30 against (s'' − s')/(v'' − v') of the phases that fn
+// R7-97(2012) Eq. 30 against (s” − s')/(v” − v') of the phases that fn
 // reports. An identity of thermodynamics; IF97 ties Eq. 30 to its phase
 // equations only through the consistency of ps itself, so the slopes agree
 // to what that allows: measured here at most 1.6e-4 up to 623.15 K
