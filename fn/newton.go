@@ -126,16 +126,29 @@ func regionBox(r int) box {
 
 // newton2 solves q1(a, T) = v1, q2(a, T) = v2 in region r from the start
 // (a, T) by Newton steps with the analytic Jacobian, damped to stay in the
-// region's box. It returns the properties and whether it converged to a
-// relative change below 1e-13 in both variables.
+// region's box. It stops when both residuals are below resTol and returns
+// the properties at the last point evaluated, reporting false if 60 steps
+// do not get there.
 func newton2(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64) (if97.Props, bool) {
+	return newton2n(r, q1, v1, q2, v2, a, T, 60, 1)
+}
+
+// newton2n is newton2 with at most maxIter steps and the residual tolerance
+// scaled by tolFactor: pairs whose inputs hardly depend on one of the
+// variables (h and s of cold liquid hardly move with p) need 1e-3 to pin
+// that variable to 1e-9.
+func newton2n(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64, maxIter int, tolFactor float64) (if97.Props, bool) {
 	b := regionBox(r)
 	s1, s2 := scaleOf(q1, v1), scaleOf(q2, v2)
+	tol1, tol2 := tolFactor*resTol(q1, v1), tolFactor*resTol(q2, v2)
 	var pr if97.Props
-	for it := 0; it < 60; it++ {
+	for it := 0; it < maxIter; it++ {
 		pr = eval(r, a, T)
-		r1 := (value(q1, &pr) - v1) / s1
-		r2 := (value(q2, &pr) - v2) / s2
+		e1, e2 := value(q1, &pr)-v1, value(q2, &pr)-v2
+		if math.Abs(e1) <= tol1 && math.Abs(e2) <= tol2 {
+			return pr, true
+		}
+		r1, r2 := e1/s1, e2/s2
 		j11, j12 := partials(q1, r, &pr)
 		j21, j22 := partials(q2, r, &pr)
 		j11, j12, j21, j22 = j11/s1, j12/s1, j21/s2, j22/s2
@@ -150,49 +163,64 @@ func newton2(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float
 		lam := 1.0
 		lam = limitStep(lam, T, dT, b.tMin, b.tMax, T/3)
 		lam = limitStep(lam, a, da, b.aMin, b.aMax, 2*a)
+		if lam == 1 && math.Abs(da) <= 1e-14*math.Abs(a) && math.Abs(dT) <= 1e-14*T {
+			return pr, true // the step is below rounding: no better point exists
+		}
 		a += lam * da
 		T += lam * dT
-		if math.Abs(da) <= 1e-13*math.Abs(a) && math.Abs(dT) <= 1e-13*T {
-			return eval(r, a, T), true
-		}
-		if lam == 1 && math.Abs(da) <= 1e-11*math.Abs(a) && math.Abs(dT) <= 1e-11*T {
-			// Quadratic convergence: one more step is below rounding.
-			return eval(r, a, T), true
-		}
 	}
 	return pr, false
 }
 
 // newton1 solves q(a, T) = v for the native variable a at fixed T, or for T
-// at fixed a when onT is true, in region r from the given start.
+// at fixed a when onT is true, in region r from the given start. It stops
+// when the residual is below resTol(q, v), returning the properties at the
+// last point evaluated (so they are the forward equation's own values), and
+// reports false after 80 steps or at a zero derivative.
 func newton1(r int, q Quantity, v float64, a, T float64, onT bool) (if97.Props, bool) {
+	return newton1n(r, q, v, a, T, onT, 80)
+}
+
+// newton1n is newton1 with at most maxIter steps.
+func newton1n(r int, q Quantity, v float64, a, T float64, onT bool, maxIter int) (if97.Props, bool) {
 	b := regionBox(r)
+	tol := resTol(q, v)
 	var pr if97.Props
-	for it := 0; it < 80; it++ {
+	for it := 0; it < maxIter; it++ {
 		pr = eval(r, a, T)
 		res := value(q, &pr) - v
+		if math.Abs(res) <= tol {
+			return pr, true
+		}
 		da, dT := partials(q, r, &pr)
 		if onT {
 			if dT == 0 || math.IsNaN(dT) {
 				return pr, false
 			}
-			step := limitStep(1, T, -res/dT, b.tMin, b.tMax, T/3) * (-res / dT)
-			T += step
-			if math.Abs(step) <= 1e-13*T {
-				return eval(r, a, T), true
-			}
+			T += limitStep(1, T, -res/dT, b.tMin, b.tMax, T/3) * (-res / dT)
 			continue
 		}
 		if da == 0 || math.IsNaN(da) {
 			return pr, false
 		}
-		step := limitStep(1, a, -res/da, b.aMin, b.aMax, 2*a) * (-res / da)
-		a += step
-		if math.Abs(step) <= 1e-13*math.Abs(a) {
-			return eval(r, a, T), true
-		}
+		a += limitStep(1, a, -res/da, b.aMin, b.aMax, 2*a) * (-res / da)
 	}
 	return pr, false
+}
+
+// resTol is the residual at which a solve for q = v stops: 2e-10 of v, with
+// a floor for quantities that pass through zero (h and u near the triple
+// point, s of cold liquid), so that every answer agrees with the forward
+// equations to better than the 1e-9 relative that steamcell promises.
+func resTol(q Quantity, v float64) float64 {
+	floor := 0.0
+	switch q {
+	case Enthalpy, InternalEnergy:
+		floor = 1 // kJ/kg
+	case Entropy:
+		floor = 0.01 // kJ/(kg·K)
+	}
+	return 2e-10 * math.Max(math.Abs(v), floor)
 }
 
 // limitStep shrinks lam so that x + lam·dx stays inside [lo, hi] (stopping

@@ -79,7 +79,17 @@ func nestedHS(h, s float64) (State, error) {
 	if !ok {
 		return State{}, noConvergence("h,s")
 	}
-	return fromPQ(math.Exp(lp), Input{Entropy, s})
+	st, err := fromPQ(math.Exp(lp), Input{Entropy, s})
+	if err != nil || st.HasX {
+		return st, err
+	}
+	// The (p, s) solve stops at a residual in s that is fine for (p, s)
+	// but, where h hardly depends on p (cold liquid), leaves p loose: a
+	// last Newton solve on (h, s) pins it.
+	if pr, ok := newton2n(st.Region, Enthalpy, h, Entropy, s, native(st.Region, &st.Props), st.T, 60, 1e-3); ok && if97.RegionOf(pr.P, pr.T) == st.Region {
+		return singleState(st.Region, pr), nil
+	}
+	return st, nil
 }
 
 // twoPhaseHS returns the two-phase state at (h, s) if (h, s) lies on or
@@ -152,6 +162,17 @@ func solveHS(r int, h, s float64) (if97.Props, bool) {
 	case 1:
 		a = if97.Region1PFromHS(h, s)
 		T = if97.Region1TFromPH(a, h)
+		if !(a > 0.1) {
+			// At low pressure SR2-01's p(h,s) is off by up to 15 kPa (its
+			// permissible inconsistency), enough to go negative: start from
+			// T at the entropy instead and the pressure that the enthalpy
+			// then needs, from (∂h/∂p)_T = v (1 − T αv).
+			T = if97.Region1TFromPS(0.1, s)
+			ps := if97.SatPressure(T)
+			pr := if97.Region1(ps, T)
+			a = ps + (h-pr.H)/(mpaM3*pr.V*(1-T*pr.AlphaV))
+			a = math.Max(a, 1.0001*ps)
+		}
 	case 2:
 		a = if97.Region2PFromHS(h, s)
 		T = if97.Region2TFromPH(a, h)
@@ -168,7 +189,7 @@ func solveHS(r int, h, s float64) (if97.Props, bool) {
 			a = 1
 		}
 	}
-	pr, ok := newton2(r, Enthalpy, h, Entropy, s, a, T)
+	pr, ok := newton2n(r, Enthalpy, h, Entropy, s, a, T, 60, 1e-3)
 	if !ok || if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
 		return pr, false
 	}

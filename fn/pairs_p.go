@@ -45,11 +45,78 @@ func checkQAtP(p float64, q Quantity, val float64) error {
 
 // fromPQ returns the state at pressure p and q = in.Value, where q is h or
 // s, both rising with T at constant pressure.
+//
+// Below 16.529 MPa the fast path guesses the phase from the value, solves in
+// that phase's region from its backward equation and accepts the answer if
+// its temperature lies on that phase's side of Ts(p): h and s rise with T at
+// constant p, so that settles the phase without evaluating the saturation
+// line. Everything else (two-phase states, region 3, region 5, the edges of
+// the range) goes through fromPQExact.
 func fromPQ(p float64, in Input) (State, error) {
 	q, val := in.Q, in.Value
 	if err := checkP(p); err != nil {
 		return State{}, err
 	}
+	liquidFirst := q == Enthalpy && val < 1500 || q == Entropy && val < 3.5
+	switch {
+	case p >= PMinSat && p <= P13Sat:
+		ts := if97.SatTemperature(p)
+		for i := 0; i < 2; i++ {
+			if liquidFirst == (i == 0) {
+				if pr, ok := tryAtP(1, p, q, val); ok && pr.T < ts && pr.T >= TMin {
+					return singleState(1, pr), nil
+				}
+			} else if pr, ok := tryAtP(2, p, q, val); ok && pr.T > ts && pr.T <= TMax {
+				return singleState(2, pr), nil
+			}
+		}
+	case p > P13Sat:
+		// Regions 1 and 2 are bounded by isotherms here; region 3 is tried
+		// only at or above pc, where no two-phase state can fit.
+		order := []int{2, 3, 1}
+		if liquidFirst {
+			order = []int{1, 3, 2}
+		}
+		for _, r := range order {
+			switch r {
+			case 1:
+				if pr, ok := tryAtP(1, p, q, val); ok && pr.T <= T13 && pr.T >= TMin {
+					return singleState(1, pr), nil
+				}
+			case 2:
+				if pr, ok := tryAtP(2, p, q, val); ok && pr.T <= TMax && pr.T >= if97.B23Temperature(p) {
+					return singleState(2, pr), nil
+				}
+			case 3:
+				if p < if97.Pc {
+					continue
+				}
+				if pr, ok := tryAtP3(p, q, val); ok {
+					return singleState(3, pr), nil
+				}
+			}
+		}
+	}
+	return fromPQExact(p, q, val)
+}
+
+// tryAtP solves q(p, T) = val in Gibbs region r by Newton steps from the
+// region's backward equation, without checking the region's limits.
+func tryAtP(r int, p float64, q Quantity, val float64) (if97.Props, bool) {
+	t0 := backwardT(r, p, q, val)
+	b := regionBox(r)
+	if !(t0 > b.tMin && t0 < b.tMax) {
+		return if97.Props{}, false
+	}
+	// From a backward equation's start (within 25 mK) Newton needs two or
+	// three steps; a start from outside its region fails fast.
+	return newton1n(r, q, val, p, t0, true, 8)
+}
+
+// fromPQExact solves (p, h) or (p, s) by first placing the value among its
+// values at the ends of the range and on the saturation line, then solving
+// in the region found. fromPQ falls back to it.
+func fromPQExact(p float64, q Quantity, val float64) (State, error) {
 	if err := checkQAtP(p, q, val); err != nil {
 		return State{}, err
 	}
@@ -157,6 +224,27 @@ func backwardT(r int, p float64, q Quantity, val float64) float64 {
 		return if97.Region2TFromPS(p, val)
 	}
 	return math.NaN()
+}
+
+// tryAtP3 solves q(p, T) = val in region 3 from the SR3-03(2014) backward
+// equations by Newton steps in (ρ, T), and reports whether the answer lies
+// in region 3.
+func tryAtP3(p float64, q Quantity, val float64) (if97.Props, bool) {
+	var t0, v0 float64
+	switch q {
+	case Enthalpy:
+		t0, v0 = if97.Region3TFromPH(p, val), if97.Region3VFromPH(p, val)
+	case Entropy:
+		t0, v0 = if97.Region3TFromPS(p, val), if97.Region3VFromPS(p, val)
+	default:
+		return if97.Props{}, false
+	}
+	b := regionBox(3)
+	if !(t0 > b.tMin && t0 < b.tMax && v0 > 0) {
+		return if97.Props{}, false
+	}
+	pr, ok := newton2n(3, Pressure, p, q, val, 1/v0, t0, 10, 1)
+	return pr, ok && if97.RegionOf(pr.P, pr.T) == 3
 }
 
 // solveAtP3 solves q(p, T) = val in region 3 with T in [tLo, tHi]: start

@@ -21,25 +21,25 @@ func region3Density(p, T float64) (float64, bool) {
 	return region3Bracketed(p, T, 1/v0)
 }
 
-// region3Newton polishes rho with Newton steps on p(ρ,T) = p.
+// region3Newton polishes rho with Newton steps on p(ρ,T) = p until the
+// pressure agrees to 2e-10 (see resTol).
 func region3Newton(p, T, rho float64) (float64, bool) {
+	tol := resTol(Pressure, p)
 	for it := 0; it < 50; it++ {
 		pr := if97.Region3(rho, T)
+		res := p - pr.P
+		if math.Abs(res) <= tol {
+			return rho, true
+		}
 		dpdrho := 1 / (pr.Rho * pr.KappaT)
 		if !(dpdrho > 0) {
 			return rho, false
 		}
-		step := (p - pr.P) / dpdrho
+		step := res / dpdrho
 		if math.Abs(step) > rho/4 {
 			step = math.Copysign(rho/4, step)
 		}
 		rho += step
-		if math.Abs(step) <= 1e-14*rho {
-			return rho, true
-		}
-		if it > 10 && math.Abs(step) <= 1e-12*rho {
-			return rho, true // rounding keeps the last steps from shrinking further
-		}
 	}
 	return rho, false
 }
