@@ -117,7 +117,9 @@ func regionBox(r int) box {
 	case 1:
 		return box{1e-7, PMax, TMin, T13}
 	case 2:
-		return box{1e-9, PMax, TMin, TMax}
+		// Up to region 5's top: the extended region-2 equation gives
+		// region 5's solves their start.
+		return box{1e-9, PMax, TMin, TMaxHigh}
 	case 3:
 		return box{50, 800, T13, 870}
 	}
@@ -197,13 +199,21 @@ func newton1n(r int, q Quantity, v float64, a, T float64, onT bool, maxIter int)
 			if dT == 0 || math.IsNaN(dT) {
 				return pr, false
 			}
-			T += limitStep(1, T, -res/dT, b.tMin, b.tMax, T/3) * (-res / dT)
+			raw := -res / dT
+			if math.Abs(raw) <= 1e-14*T {
+				return pr, true // below rounding: no better point exists
+			}
+			T += limitStep(1, T, raw, b.tMin, b.tMax, T/3) * raw
 			continue
 		}
 		if da == 0 || math.IsNaN(da) {
 			return pr, false
 		}
-		a += limitStep(1, a, -res/da, b.aMin, b.aMax, 2*a) * (-res / da)
+		raw := -res / da
+		if math.Abs(raw) <= 1e-14*math.Abs(a) {
+			return pr, true
+		}
+		a += limitStep(1, a, raw, b.aMin, b.aMax, 2*a) * raw
 	}
 	return pr, false
 }
@@ -212,9 +222,13 @@ func newton1n(r int, q Quantity, v float64, a, T float64, onT bool, maxIter int)
 // a floor for quantities that pass through zero (h and u near the triple
 // point, s of cold liquid), so that every answer agrees with the forward
 // equations to better than the 1e-9 relative that steamcell promises.
+// Volume and density stop only at rounding: liquid water is so stiff that
+// v to 2e-10 leaves p uncertain by 0.5 kPa.
 func resTol(q Quantity, v float64) float64 {
 	floor := 0.0
 	switch q {
+	case Volume, Density:
+		return 1e-15 * math.Abs(v)
 	case Enthalpy, InternalEnergy:
 		floor = 1 // kJ/kg
 	case Entropy:

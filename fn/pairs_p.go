@@ -66,8 +66,8 @@ func fromPQ(p float64, in Input) (State, error) {
 				if pr, ok := tryAtP(1, p, q, val); ok && pr.T < ts && pr.T >= TMin {
 					return singleState(1, pr), nil
 				}
-			} else if pr, ok := tryAtP(2, p, q, val); ok && pr.T > ts && pr.T <= TMax {
-				return singleState(2, pr), nil
+			} else if st, ok := tryVapourAtP(p, q, val, ts); ok {
+				return st, nil
 			}
 		}
 	case p > P13Sat:
@@ -84,8 +84,8 @@ func fromPQ(p float64, in Input) (State, error) {
 					return singleState(1, pr), nil
 				}
 			case 2:
-				if pr, ok := tryAtP(2, p, q, val); ok && pr.T <= TMax && pr.T >= if97.B23Temperature(p) {
-					return singleState(2, pr), nil
+				if st, ok := tryVapourAtP(p, q, val, if97.B23Temperature(p)); ok {
+					return st, nil
 				}
 			case 3:
 				if p < if97.Pc {
@@ -98,6 +98,22 @@ func fromPQ(p float64, in Input) (State, error) {
 		}
 	}
 	return fromPQExact(p, q, val)
+}
+
+// tryVapourAtP tries region 2 above tLo and, where region 2's equation
+// (extended past 1073.15 K, which its regionBox allows) puts the answer
+// above 1073.15 K, region 5 from there.
+func tryVapourAtP(p float64, q Quantity, val, tLo float64) (State, bool) {
+	pr, ok := tryAtP(2, p, q, val)
+	switch {
+	case ok && pr.T > tLo && pr.T <= TMax:
+		return singleState(2, pr), true
+	case ok && pr.T > TMax && p <= PMaxHigh:
+		if pr, ok := newton1n(5, q, val, p, pr.T, true, 12); ok && pr.T > TMax && pr.T <= TMaxHigh {
+			return singleState(5, pr), true
+		}
+	}
+	return State{}, false
 }
 
 // tryAtP solves q(p, T) = val in Gibbs region r by Newton steps from the

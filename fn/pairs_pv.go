@@ -2,6 +2,7 @@ package fn
 
 import (
 	"fmt"
+	"math"
 
 	"steamcell/fn/if97"
 )
@@ -17,6 +18,9 @@ func fromPV(p, v float64) (State, error) {
 	}
 	if err := checkV(v); err != nil {
 		return State{}, err
+	}
+	if st, ok := fastPV(p, v); ok {
+		return st, nil
 	}
 	_, tHi := tRangeAtP(p)
 	if vmax := quantityAt(Volume, p, tHi); v > vmax {
@@ -100,4 +104,41 @@ func liquidAtPV(p, v, tTop float64) (State, error) {
 			Detail: fmt.Sprintf("near the density maximum of water, v = %g m³/kg at p = %g MPa fits T = %.6g K and T = %.6g K; give T instead of v", v, p, a.T, b.T)}
 	}
 	return solvedAtP(1, p, Volume, v, tmd, tTop)
+}
+
+// fastPV tries (p, v) in regions 1 and 2 by Newton steps in T, from the
+// ideal-gas temperature for vapour and from the top of the liquid range for
+// liquid (v is convex in T there, so the steps approach from above), and
+// accepts the answer by which side of the saturation temperature (or of the
+// region boundaries above 16.529 MPa) it lies on. Liquid answers below
+// 285 K go to the exact path, which minds the density maximum.
+func fastPV(p, v float64) (State, bool) {
+	if !(p >= PMinSat && p <= PMax && v > 0) {
+		return State{}, false
+	}
+	tLiqTop, tVapLo := T13, if97.B23Temperature(p)
+	if p <= P13Sat {
+		tLiqTop = if97.SatTemperature(p)
+		tVapLo = tLiqTop
+	}
+	if v < 0.0025 {
+		pr, ok := newton1n(1, Volume, v, p, tLiqTop, true, 12)
+		if ok && pr.T < tLiqTop && pr.T >= 285 && pr.AlphaV > 0 {
+			return singleState(1, pr), true
+		}
+		return State{}, false
+	}
+	tIdeal := p * v * mpaM3 / if97.R
+	if tIdeal > TMax && p <= PMaxHigh {
+		pr, ok := newton1n(5, Volume, v, p, math.Min(tIdeal, TMaxHigh), true, 12)
+		if ok && pr.T > TMax && pr.T <= TMaxHigh {
+			return singleState(5, pr), true
+		}
+	}
+	t0 := math.Max(tVapLo, math.Min(TMax, tIdeal))
+	pr, ok := newton1n(2, Volume, v, p, t0, true, 12)
+	if ok && pr.T > tVapLo && pr.T <= TMax {
+		return singleState(2, pr), true
+	}
+	return State{}, false
 }

@@ -45,6 +45,9 @@ func fromTV(T, v float64) (State, error) {
 	if err := checkV(v); err != nil {
 		return State{}, err
 	}
+	if st, ok := fastTV(T, v); ok {
+		return st, nil
+	}
 	pTop := pMaxAtT(T)
 	tooDense := func() error {
 		vmin := quantityAt(Volume, pTop, T)
@@ -92,6 +95,31 @@ func fromTV(T, v float64) (State, error) {
 		return singleState(3, pr), nil
 	}
 	return solvedAtT(2, T, Volume, v, 0, pb)
+}
+
+// fastTV tries (T, v) in regions 1 and 2 up to 623.15 K by Newton steps in
+// p from a start that needs no evaluation (p just above ps(T) for liquid,
+// the ideal-gas pressure for vapour), and accepts the answer by which side
+// of ps(T) it lies on: v falls as p rises along an isotherm, so that settles
+// the phase. Anything else goes to the exact path.
+func fastTV(T, v float64) (State, bool) {
+	if T < TMin || T > T13 || !(v > 0) {
+		return State{}, false
+	}
+	ps := if97.SatPressure(T)
+	if v < 0.0025 { // liquid-like; vc = 0.0031 m³/kg
+		pr, ok := newton1n(1, Volume, v, math.Min(ps+1, PMax), T, false, 12)
+		if ok && pr.P > ps && pr.P <= PMax {
+			return singleState(1, pr), true
+		}
+		return State{}, false
+	}
+	p0 := math.Min(if97.R*T/(mpaM3*v), ps)
+	pr, ok := newton1n(2, Volume, v, p0, T, false, 12)
+	if ok && pr.P < ps && pr.P > 0 {
+		return singleState(2, pr), true
+	}
+	return State{}, false
 }
 
 // solvedAtT solves q(p, T) = val for p in (pLo, pHi] in the Gibbs region r
