@@ -1,6 +1,10 @@
 package fn
 
-import "math"
+import (
+	"math"
+
+	"steamcell/fn/if97"
+)
 
 // FromUV returns the state at specific internal energy u (kJ/kg) and
 // specific volume v (m³/kg), the pair of a closed rigid vessel.
@@ -16,6 +20,9 @@ func FromUV(u, v float64) (State, error) {
 	}
 	if err := checkV(v); err != nil {
 		return State{}, err
+	}
+	if st, ok := fastUV(u, v); ok {
+		return st, nil
 	}
 	f := func(T float64) float64 {
 		st, err := fromTV(T, v)
@@ -59,4 +66,67 @@ func FromUV(u, v float64) (State, error) {
 		return State{}, noConvergence("u,v")
 	}
 	return fromTV(T, v)
+}
+
+// fastUV tries (u, v) by Newton steps from rough starts: in region 3 at the
+// given density (where ρ is a native variable, so the solve is for T
+// alone), in regions 1, 2 and 5 in (p, T). An answer counts only if it lies
+// in the region solved in and, on the saturation dome's side, in a stable
+// single phase: below Tc its pressure must be above ps(T) for liquid
+// (v below the critical volume) and below it for vapour, and a region-3
+// answer below Tc must have a density outside the saturated densities.
+// Everything else goes to the exact path.
+func fastUV(u, v float64) (State, bool) {
+	if !(v > 0) {
+		return State{}, false
+	}
+	stable := func(pr *if97.Props) bool {
+		if pr.T >= if97.Tc {
+			return true
+		}
+		ps := if97.SatPressure(pr.T)
+		if v < 1/if97.Rhoc {
+			return pr.P > ps
+		}
+		return pr.P < ps
+	}
+	accept := func(r int, pr if97.Props, ok bool) (State, bool) {
+		if ok && if97.RegionOf(pr.P, pr.T) == r && stable(&pr) {
+			return singleState(r, pr), true
+		}
+		return State{}, false
+	}
+	rho := 1 / v
+	switch {
+	case v < 0.00125: // liquid-like: region 1 from cp ≈ 4.2 kJ/(kg·K)
+		t0 := math.Min(T13, math.Max(TMin, TMin+u/4.2))
+		pr, ok := newton2n(1, Volume, v, InternalEnergy, u, math.Min(PMax, if97.SatPressure(t0)+5), t0, 20, 1)
+		if st, ok := accept(1, pr, ok); ok {
+			return st, true
+		}
+	case v > 0.004: // vapour-like: u ≈ 2375 + 1.5 (T − 273.15) − 3.5/v kJ/kg, ideal-gas p
+		t0 := math.Min(TMaxHigh, math.Max(TMin, TMin+(u+3.5/v-2375)/1.5))
+		r := 2
+		if t0 > TMax {
+			r = 5
+		}
+		p0 := if97.R * t0 / (mpaM3 * v)
+		pr, ok := newton2n(r, Volume, v, InternalEnergy, u, p0, t0, 30, 1)
+		if st, ok := accept(r, pr, ok); ok {
+			return st, true
+		}
+	}
+	if rho > 100 && rho < 800 {
+		pr, ok := newton1n(3, InternalEnergy, u, rho, 700, true, 20)
+		if ok && if97.RegionOf(pr.P, pr.T) == 3 {
+			if pr.T >= if97.Tc {
+				return singleState(3, pr), true
+			}
+			// Below Tc the density must lie outside the two-phase dome.
+			if rl, rv, ok := if97.Region3SatDensities(pr.T); ok && (rho > rl || rho < rv) {
+				return singleState(3, pr), true
+			}
+		}
+	}
+	return State{}, false
 }
