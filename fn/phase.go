@@ -13,6 +13,7 @@ const (
 	SaturatedVapour                     // on the saturation line, x = 1
 	SuperheatedVapour                   // vapour above its saturation temperature
 	SupercriticalFluid                  // p ≥ pc and T ≥ Tc
+	MetastableVapour                    // vapour below its saturation temperature; only from FromPTMetastable
 )
 
 var phaseNames = [...]string{
@@ -22,11 +23,12 @@ var phaseNames = [...]string{
 	SaturatedVapour:    "saturated vapour",
 	SuperheatedVapour:  "superheated vapour",
 	SupercriticalFluid: "supercritical fluid",
+	MetastableVapour:   "metastable vapour",
 }
 
 // String returns the phase in words, e.g. "superheated vapour".
 func (ph Phase) String() string {
-	if ph < CompressedLiquid || ph > SupercriticalFluid {
+	if ph < CompressedLiquid || ph > MetastableVapour {
 		return "unknown"
 	}
 	return phaseNames[ph]

@@ -144,3 +144,36 @@ func warnings(s *State) []string {
 	}
 	return w
 }
+
+// FromPTMetastable returns supercooled (metastable) vapour at p (MPa) and T
+// (K) from the metastable-vapour equation of IAPWS R7-97(2012) section 6.2
+// (Eq. 18, Table 16): vapour that has expanded below its saturation
+// temperature without condensing, as in a fast expansion through a nozzle
+// or turbine stage. The release gives the equation for 0 < p ≤ 10 MPa from
+// the saturated-vapour line down to the 5 % equilibrium-moisture line; the
+// latter has no closed form, so FromPTMetastable accepts T from 273.15 K up
+// to Ts(p) at p ≤ 10 MPa and warns that the equation is valid only down to
+// about 5 % equilibrium moisture.
+func FromPTMetastable(p, T float64) (State, error) {
+	if err := checkFinite(Input{Pressure, p}, Input{Temperature, T}); err != nil {
+		return State{}, err
+	}
+	switch {
+	case p <= 0:
+		return State{}, outOfRange(Pressure, p, 0, "p must be above 0 MPa (absolute)")
+	case p > 10:
+		return State{}, outOfRange(Pressure, p, 10, "the metastable-vapour equation holds up to 10 MPa")
+	case T < TMin:
+		return State{}, outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+	}
+	if p >= PMinSat {
+		if ts := if97.SatTemperature(p); T > ts {
+			return State{}, outOfRange(Temperature, T, ts, "T above the saturation temperature %.6g K: the vapour is not metastable; use FromPT", ts)
+		}
+	} else {
+		return State{}, outOfRange(Pressure, p, PMinSat, "below %g MPa no vapour is metastable above 273.15 K", PMinSat)
+	}
+	s := State{Props: if97.Region2Metastable(p, T), Region: 2, Phase: MetastableVapour}
+	s.Warnings = []string{"metastable (supercooled) vapour from the IF97 metastable-vapour equation, valid down to about 5 % equilibrium moisture"}
+	return s, nil
+}

@@ -180,3 +180,22 @@ func TestClausiusClapeyron(t *testing.T) {
 		}
 	}
 }
+
+// The metastable-vapour equation through fn (its values are checked against
+// R7-97(2012) Table 18 in fn/if97) at 1 MPa, 450 K, below Ts = 453.03 K;
+// and the range checks.
+func TestMetastable(t *testing.T) {
+	st, err := FromPTMetastable(1, 450)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := if97.Region2Metastable(1, 450)
+	if st.Phase != MetastableVapour || !scalar.EqualWithinRel(st.H, want.H, 1e-15) || len(st.Warnings) == 0 {
+		t.Errorf("FromPTMetastable(1, 450) = %v h %g, want metastable vapour h %g", st.Phase, st.H, want.H)
+	}
+	for _, pt := range [][2]float64{{1, 460}, {11, 500}, {1, 270}, {-1, 300}, {1e-4, 280}} {
+		if _, err := FromPTMetastable(pt[0], pt[1]); !errors.Is(err, ErrOutOfRange) {
+			t.Errorf("FromPTMetastable(%g, %g): %v, want ErrOutOfRange", pt[0], pt[1], err)
+		}
+	}
+}
