@@ -156,8 +156,9 @@ func B2abEnthalpy(s float64) float64 {
 // |Δp/p| = 0.0035 % and 2c within 0.0088 %. Inputs outside region 2 are
 // evaluated without check and give meaningless values.
 //
-// Sub-region 2b departs from the release: the coefficients of its Eq. 4
-// (Table 7) could not be reproduced here, so the pressure is found by Newton
+// Sub-region 2b departs from the release: of the 33 coefficients of its Eq. 4
+// (Table 7) only the first five could be recalled here (the exponents are
+// known), so the pressure is found by Newton
 // iteration on the basic equation Region2 (R7-97(2012), Eq. 15). The result
 // satisfies h and s to round-off, which is closer to Region2 than Eq. 4 is,
 // but differs from the values printed in SR2-01 Table 9 by up to the

@@ -89,9 +89,15 @@ func TestBackward12Region2bPFromHS(t *testing.T) {
 	}
 }
 
+// IAPWS SR2-01(2014), Eq. 4 (sub-region 2b, Table 7 coefficients) against
+// Table 9 rows 4–6 at bw12TableRel. The rows pair as printed above: the basic
+// equation Region2 gives 4.793952538, 83.95535992 and 7.527167003 MPa at
+// (2800, 6), (3600, 6) and (3600, 7), within the 0.0019 % the release permits
+// for Eq. 4, while (2800, 6.8) lies in 2a and (3400, 6.8) gives 6.77 MPa.
 func TestBackward12Region2bPFromHSEquation4(t *testing.T) {
-	t.Skip("IAPWS SR2-01(2014) Eq. 4 (sub-region 2b) is not implemented: the coefficients of its Table 7 " +
-		"could not be reproduced from memory, so Table 9 rows 4–6 (p = 4.793911442, 83.95519209, " +
+	t.Skip("IAPWS SR2-01(2014) Eq. 4 (sub-region 2b) is not implemented: of its Table 7 only the exponents " +
+		"I, J and the coefficients n1–n5 are recalled (0.0801496989929495, -0.543862807146111, 0.337455597421283, " +
+		"8.90555451157450, 144.731324584745), n6–n33 are not, so Table 9 rows 4–6 (p = 4.793911442, 83.95519209, " +
 		"7.527161441 MPa) cannot be matched to 1e-8; Region2PFromHS solves 2b from the basic equation instead")
 }
 

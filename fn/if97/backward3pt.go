@@ -288,9 +288,10 @@ func sr5NearCritical(p, T float64) byte {
 // f3 (R7-97 Eq. 28) within the 0.001 % in v that the release requires. The
 // auxiliary equations 3u to 3x near the critical point agree within 0.1 %,
 // and 3y and 3z, within about 0.7 K and 0.15 MPa of the critical point,
-// within 2 % (measured against f3, see the tests); there the release means
-// them as starting values for an iteration on f3. Outside region 3 it
-// returns NaN.
+// within 2 % (up to 1.8 % measured against f3 across both sub-regions; the
+// values the release itself prints for 3y and 3z differ from f3 by up to
+// 1.5 %, see the tests); there the release means them as starting values
+// for an iteration on f3. Outside region 3 it returns NaN.
 func Region3VFromPT(p, T float64) float64 {
 	sub := Region3SubregionPT(p, T)
 	if sub == 0 {

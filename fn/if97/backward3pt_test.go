@@ -169,10 +169,18 @@ func BenchmarkSr5Region3VFromPT(b *testing.B) {
 // sub-region. SR5-05(2016) permits 0.001 % in sub-regions 3a to 3t
 // (section 3.1, value recalled). For the auxiliary equations 3u to 3x the
 // limit is 0.1 % (recalled, not quoted). For 3y and 3z, which surround the
-// critical point, no figure of the release is recalled; the equations
-// reproduce its verification values to 1e-9 yet differ from f3 by up to
-// 1.8 % across both sub-regions, so the limit here is a 2 % guard against
-// regressions, not a value of the release.
+// critical point, no figure of the release is recalled, and the 2 % here is
+// a guard against regressions, not a value of the release. It cannot be
+// tightened honestly: every coefficient, exponent and reducing constant of
+// 3y and 3z was checked again, each of their terms carries at least 1e-3 of
+// the sum at both verification points of its sub-region (so one wrong value
+// would break a verification value reproduced to 1e-9), and the grid keeps
+// only states that the release's own selection (section 4) puts in 3y or 3z.
+// The deviation of about ±1.5 % is not confined to the critical point but
+// spreads over both sub-regions, and the release's own printed verification
+// values deviate from f3 just as much (up to 1.5 %, see
+// TestSr5NearCriticalPrintedValuesAgainstBasicEquation): it belongs to the
+// auxiliary equations as published, which serve as starting values there.
 func sr5Permissible(sub byte) float64 {
 	switch {
 	case sub == 'y' || sub == 'z':
@@ -259,5 +267,49 @@ func TestSr5ConsistencyWithBasicEquation(t *testing.T) {
 			t.Errorf("3%c: max |Δv/v| = %.3g at p=%g MPa, T=%g K, want ≤ %g",
 				sub, worst[sub], w[0], w[1], sr5Permissible(sub))
 		}
+	}
+}
+
+func TestSr5NearCriticalPrintedValuesAgainstBasicEquation(t *testing.T) {
+	// The verification values of 3y and 3z printed in SR5-05(2016), section
+	// 4, against v from the basic equation f3 of R7-97(2012), Eq. 28, solved
+	// for the density at the same (p, T) on the side of the critical density
+	// the sub-region lies on (3y liquid-like, 3z vapour-like; f3 has a single
+	// root there). The release's own values differ from f3 by up to 1.5 %,
+	// which is why the grid deviation of 3y and 3z in
+	// TestSr5ConsistencyWithBasicEquation is that large: it is a property of
+	// the published auxiliary equations, not of this implementation.
+	worst := 0.0
+	for _, tc := range sr5Points {
+		if tc.sub != 'y' && tc.sub != 'z' {
+			continue
+		}
+		lo, hi := if97.Rhoc, 700.0 // 3y
+		if tc.sub == 'z' {
+			lo, hi = 100, if97.Rhoc
+		}
+		flo := if97.Region3(lo, tc.t).P - tc.p
+		if fhi := if97.Region3(hi, tc.t).P - tc.p; (flo > 0) == (fhi > 0) {
+			t.Fatalf("3%c: f3 does not bracket p=%g MPa at T=%g K in ρ = %g to %g kg/m³", tc.sub, tc.p, tc.t, lo, hi)
+		}
+		for range 100 {
+			mid := 0.5 * (lo + hi)
+			if f := if97.Region3(mid, tc.t).P - tc.p; (f > 0) == (flo > 0) {
+				lo, flo = mid, f
+			} else {
+				hi = mid
+			}
+		}
+		rho := 0.5 * (lo + hi)
+		dev := tc.v*rho - 1
+		worst = math.Max(worst, math.Abs(dev))
+		t.Logf("3%c: p=%g MPa, T=%g K: printed v = %.9e m³/kg, f3 v = %.9e m³/kg, Δv/v = %+.3f %%",
+			tc.sub, tc.p, tc.t, tc.v, 1/rho, 100*dev)
+		if !(math.Abs(dev) <= sr5Permissible(tc.sub)) {
+			t.Errorf("3%c: printed v(p=%g MPa, T=%g K) deviates from f3 by %.3g, beyond the %g guard", tc.sub, tc.p, tc.t, dev, sr5Permissible(tc.sub))
+		}
+	}
+	if !(worst > 0.01) {
+		t.Errorf("printed 3y/3z values deviate from f3 by at most %.3g; if f3 changed, revisit sr5Permissible", worst)
 	}
 }
