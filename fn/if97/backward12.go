@@ -2,43 +2,9 @@ package if97
 
 import "math"
 
-// bw12Term is one row of a backward-equation coefficient table: the
-// exponents I and J and the coefficient n, as printed in the release.
-type bw12Term struct {
-	I, J int
-	n    float64
-}
-
-// bw12Pow returns x raised to the integer power k by repeated squaring, so
-// that the backward equations need no call to math.Pow for integer exponents.
-func bw12Pow(x float64, k int) float64 {
-	if k < 0 {
-		x = 1 / x
-		k = -k
-	}
-	r := 1.0
-	for k > 0 {
-		if k&1 == 1 {
-			r *= x
-		}
-		x *= x
-		k >>= 1
-	}
-	return r
-}
-
-// bw12Sum returns Σ n_i a^I_i b^J_i over the rows of a coefficient table.
-func bw12Sum(rows []bw12Term, a, b float64) float64 {
-	var sum float64
-	for _, r := range rows {
-		sum += r.n * bw12Pow(a, r.I) * bw12Pow(b, r.J)
-	}
-	return sum
-}
-
 // Coefficients of the backward equation T(p,h) for region 1.
 // IAPWS R7-97(2012), Table 6 (Eq. 11).
-var bw12Region1TPH = [20]bw12Term{
+var bw12Region1TPH = [20]term{
 	{0, 0, -0.23872489924521e3},
 	{0, 1, 0.40421188637945e3},
 	{0, 2, 0.11349746881718e3},
@@ -63,7 +29,7 @@ var bw12Region1TPH = [20]bw12Term{
 
 // Coefficients of the backward equation T(p,s) for region 1.
 // IAPWS R7-97(2012), Table 8 (Eq. 13).
-var bw12Region1TPS = [20]bw12Term{
+var bw12Region1TPS = [20]term{
 	{0, 0, 0.17478268058307e3},
 	{0, 1, 0.34806930892873e2},
 	{0, 2, 0.65292584978455e1},
@@ -98,7 +64,7 @@ var bw12B2bc = [5]float64{
 
 // Coefficients of the backward equation T(p,h) for sub-region 2a.
 // IAPWS R7-97(2012), Table 20 (Eq. 22).
-var bw12Region2aTPH = [34]bw12Term{
+var bw12Region2aTPH = [34]term{
 	{0, 0, 0.10898952318288e4},
 	{0, 1, 0.84951654495535e3},
 	{0, 2, -0.10781748091826e3},
@@ -137,7 +103,7 @@ var bw12Region2aTPH = [34]bw12Term{
 
 // Coefficients of the backward equation T(p,h) for sub-region 2b.
 // IAPWS R7-97(2012), Table 21 (Eq. 23).
-var bw12Region2bTPH = [38]bw12Term{
+var bw12Region2bTPH = [38]term{
 	{0, 0, 0.14895041079516e4},
 	{0, 1, 0.74307798314034e3},
 	{0, 2, -0.97708318797837e2},
@@ -180,7 +146,7 @@ var bw12Region2bTPH = [38]bw12Term{
 
 // Coefficients of the backward equation T(p,h) for sub-region 2c.
 // IAPWS R7-97(2012), Table 22 (Eq. 24).
-var bw12Region2cTPH = [23]bw12Term{
+var bw12Region2cTPH = [23]term{
 	{-7, 0, -0.32368398555242e13},
 	{-7, 4, 0.73263350902181e13},
 	{-6, 0, 0.35825089945447e12},
@@ -210,7 +176,7 @@ var bw12Region2cTPH = [23]bw12Term{
 // exponents I of this table are multiples of 1/4; they are stored here as
 // 4·I (so -1.5 is stored as -6) and the equation is evaluated in powers of
 // pi^(1/4). IAPWS R7-97(2012), Table 25 (Eq. 25).
-var bw12Region2aTPS = [46]bw12Term{
+var bw12Region2aTPS = [46]term{
 	{-6, -24, -0.39235983861984e6},
 	{-6, -23, 0.51526573827270e6},
 	{-6, -19, 0.40482443161048e5},
@@ -261,7 +227,7 @@ var bw12Region2aTPS = [46]bw12Term{
 
 // Coefficients of the backward equation T(p,s) for sub-region 2b.
 // IAPWS R7-97(2012), Table 26 (Eq. 26).
-var bw12Region2bTPS = [44]bw12Term{
+var bw12Region2bTPS = [44]term{
 	{-6, 0, 0.31687665083497e6},
 	{-6, 11, 0.20864175881858e2},
 	{-5, 0, -0.39859399803599e6},
@@ -310,7 +276,7 @@ var bw12Region2bTPS = [44]bw12Term{
 
 // Coefficients of the backward equation T(p,s) for sub-region 2c.
 // IAPWS R7-97(2012), Table 27 (Eq. 27).
-var bw12Region2cTPS = [30]bw12Term{
+var bw12Region2cTPS = [30]term{
 	{-2, 0, 0.90968501005365e3},
 	{-2, 1, 0.24045667088420e4},
 	{-1, 0, -0.59162326387130e3},
@@ -365,7 +331,7 @@ const bw12Region2bcEntropy = 5.85
 // Source: IAPWS R7-97(2012), Eq. 11, Table 6.
 func Region1TFromPH(p, h float64) float64 {
 	pi, eta := p/1, h/2500
-	return bw12Sum(bw12Region1TPH[:], pi, eta+1)
+	return termSum(bw12Region1TPH[:], pi, eta+1)
 }
 
 // Region1TFromPS returns the temperature, K, of compressed water from the
@@ -380,7 +346,7 @@ func Region1TFromPH(p, h float64) float64 {
 // Source: IAPWS R7-97(2012), Eq. 13, Table 8.
 func Region1TFromPS(p, s float64) float64 {
 	pi, sigma := p/1, s/1
-	return bw12Sum(bw12Region1TPS[:], pi, sigma+2)
+	return termSum(bw12Region1TPS[:], pi, sigma+2)
 }
 
 // B2bcPressure returns the pressure, MPa, on the boundary B2bc between
@@ -434,11 +400,11 @@ func Region2TFromPH(p, h float64) float64 {
 	eta := h / 2000
 	switch {
 	case p <= bw12Region2abPressure: // Eq. 22
-		return bw12Sum(bw12Region2aTPH[:], p, eta-2.1)
+		return termSum(bw12Region2aTPH[:], p, eta-2.1)
 	case p <= B2bcPressure(h): // Eq. 23
-		return bw12Sum(bw12Region2bTPH[:], p-2, eta-2.6)
+		return termSum(bw12Region2bTPH[:], p-2, eta-2.6)
 	default: // Eq. 24
-		return bw12Sum(bw12Region2cTPH[:], p+25, eta-1.8)
+		return termSum(bw12Region2cTPH[:], p+25, eta-1.8)
 	}
 }
 
@@ -459,10 +425,10 @@ func Region2TFromPH(p, h float64) float64 {
 func Region2TFromPS(p, s float64) float64 {
 	switch {
 	case p <= bw12Region2abPressure: // Eq. 25, exponents of pi in quarters
-		return bw12Sum(bw12Region2aTPS[:], math.Sqrt(math.Sqrt(p)), s/2-2)
+		return termSum(bw12Region2aTPS[:], math.Sqrt(math.Sqrt(p)), s/2-2)
 	case s >= bw12Region2bcEntropy: // Eq. 26
-		return bw12Sum(bw12Region2bTPS[:], p, 10-s/0.7853)
+		return termSum(bw12Region2bTPS[:], p, 10-s/0.7853)
 	default: // Eq. 27
-		return bw12Sum(bw12Region2cTPS[:], p, 2-s/2.9251)
+		return termSum(bw12Region2cTPS[:], p, 2-s/2.9251)
 	}
 }

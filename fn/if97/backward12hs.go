@@ -4,7 +4,7 @@ import "math"
 
 // Coefficients of the backward equation p(h,s) for region 1.
 // IAPWS SR2-01(2014), Table 2 (Eq. 1).
-var bw12Region1PHS = [19]bw12Term{
+var bw12Region1PHS = [19]term{
 	{0, 0, -0.691997014660582},
 	{0, 1, -0.183612548787560e2},
 	{0, 2, -0.928332409297335e1},
@@ -37,7 +37,7 @@ var bw12B2ab = [4]float64{
 
 // Coefficients of the backward equation p(h,s) for sub-region 2a.
 // IAPWS SR2-01(2014), Table 6 (Eq. 3).
-var bw12Region2aPHS = [29]bw12Term{
+var bw12Region2aPHS = [29]term{
 	{0, 1, -0.182575361923032e-1},
 	{0, 3, -0.125229548799536},
 	{0, 6, 0.592290437320145},
@@ -71,7 +71,7 @@ var bw12Region2aPHS = [29]bw12Term{
 
 // Coefficients of the backward equation p(h,s) for sub-region 2c.
 // IAPWS SR2-01(2014), Table 8 (Eq. 5).
-var bw12Region2cPHS = [31]bw12Term{
+var bw12Region2cPHS = [31]term{
 	{0, 0, 0.112225607199012},
 	{0, 1, -0.339005953606712e1},
 	{0, 2, -0.320503911730094e2},
@@ -119,7 +119,7 @@ var bw12Region2cPHS = [31]bw12Term{
 // Source: IAPWS SR2-01(2014), Eq. 1, Table 2.
 func Region1PFromHS(h, s float64) float64 {
 	eta, sigma := h/3400, s/7.6
-	return 100 * bw12Sum(bw12Region1PHS[:], eta+0.05, sigma+0.05)
+	return 100 * termSum(bw12Region1PHS[:], eta+0.05, sigma+0.05)
 }
 
 // B2abEnthalpy returns the specific enthalpy, kJ/kg, on the boundary between
@@ -166,12 +166,12 @@ func B2abEnthalpy(s float64) float64 {
 func Region2PFromHS(h, s float64) float64 {
 	switch {
 	case h <= B2abEnthalpy(s): // Eq. 3
-		pi := bw12Sum(bw12Region2aPHS[:], h/4200-0.5, s/12-1.2)
+		pi := termSum(bw12Region2aPHS[:], h/4200-0.5, s/12-1.2)
 		return 4 * bw12Sq(bw12Sq(pi))
 	case s >= bw12Region2bcEntropy:
 		return bw12Region2bPressureHS(h, s)
 	default: // Eq. 5
-		pi := bw12Sum(bw12Region2cPHS[:], h/3500-0.7, s/5.9-1.1)
+		pi := termSum(bw12Region2cPHS[:], h/3500-0.7, s/5.9-1.1)
 		return 100 * bw12Sq(bw12Sq(pi))
 	}
 }

@@ -14,37 +14,6 @@ package if97
 // edition of SR3-03; the equation number named beside each table identifies
 // it without doubt.
 
-// bw3Term is one row (I, J, n) of a coefficient table.
-type bw3Term struct {
-	I, J int
-	n    float64
-}
-
-// bw3Powi returns x^k for an integer k by repeated squaring; x^0 = 1.
-func bw3Powi(x float64, k int) float64 {
-	if k < 0 {
-		return 1 / bw3Powi(x, -k)
-	}
-	r := 1.0
-	for k > 0 {
-		if k&1 == 1 {
-			r *= x
-		}
-		x *= x
-		k >>= 1
-	}
-	return r
-}
-
-// bw3Sum evaluates Σ nᵢ a^Iᵢ b^Jᵢ over the rows of a coefficient table.
-func bw3Sum(rows []bw3Term, a, b float64) float64 {
-	var sum float64
-	for _, r := range rows {
-		sum += r.n * bw3Powi(a, r.I) * bw3Powi(b, r.J)
-	}
-	return sum
-}
-
 // bw3CriticalEntropy is the specific entropy at the critical point, kJ/(kg·K),
 // that splits subregions 3a and 3b in the (p,s) equations
 // (IAPWS SR3-03(2014), section 3.3; also SR4-04(2014), section 3.1).
@@ -60,7 +29,7 @@ var bw3H3ab = [4]float64{
 }
 
 // IAPWS SR3-03(2014), Table 3: coefficients and exponents of T3a(p,h), Eq. 2.
-var bw3T3aPH = [31]bw3Term{
+var bw3T3aPH = [31]term{
 	{-12, 0, -0.133645667811215e-6},
 	{-12, 1, 0.455912656802978e-5},
 	{-12, 2, -0.146294640700979e-4},
@@ -95,7 +64,7 @@ var bw3T3aPH = [31]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 4: coefficients and exponents of T3b(p,h), Eq. 3.
-var bw3T3bPH = [33]bw3Term{
+var bw3T3bPH = [33]term{
 	{-12, 0, 0.323254573644920e-4},
 	{-12, 1, -0.127575556587181e-3},
 	{-10, 0, -0.475851877356068e-3},
@@ -132,7 +101,7 @@ var bw3T3bPH = [33]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 6: coefficients and exponents of v3a(p,h), Eq. 4.
-var bw3V3aPH = [32]bw3Term{
+var bw3V3aPH = [32]term{
 	{-12, 6, 0.529944062966028e-2},
 	{-12, 8, -0.170099690234461},
 	{-12, 12, 0.111323814312927e2},
@@ -168,7 +137,7 @@ var bw3V3aPH = [32]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 7: coefficients and exponents of v3b(p,h), Eq. 5.
-var bw3V3bPH = [30]bw3Term{
+var bw3V3bPH = [30]term{
 	{-12, 0, -0.225196934336318e-8},
 	{-12, 1, 0.140674363313486e-7},
 	{-8, 0, 0.233784085280560e-5},
@@ -202,7 +171,7 @@ var bw3V3bPH = [30]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 10: coefficients and exponents of T3a(p,s), Eq. 6.
-var bw3T3aPS = [33]bw3Term{
+var bw3T3aPS = [33]term{
 	{-12, 28, 0.150042008263875e10},
 	{-12, 32, -0.159397258480424e12},
 	{-10, 4, 0.502181140217975e-3},
@@ -239,7 +208,7 @@ var bw3T3aPS = [33]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 11: coefficients and exponents of T3b(p,s), Eq. 7.
-var bw3T3bPS = [28]bw3Term{
+var bw3T3bPS = [28]term{
 	{-12, 1, 0.527111701601660},
 	{-12, 3, -0.401317830052742e2},
 	{-12, 4, 0.153020073134484e3},
@@ -271,7 +240,7 @@ var bw3T3bPS = [28]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 13: coefficients and exponents of v3a(p,s), Eq. 8.
-var bw3V3aPS = [28]bw3Term{
+var bw3V3aPS = [28]term{
 	{-12, 10, 0.795544074093975e2},
 	{-12, 12, -0.238261242984590e4},
 	{-12, 14, 0.176813100617787e5},
@@ -303,7 +272,7 @@ var bw3V3aPS = [28]bw3Term{
 }
 
 // IAPWS SR3-03(2014), Table 14: coefficients and exponents of v3b(p,s), Eq. 9.
-var bw3V3bPS = [31]bw3Term{
+var bw3V3bPS = [31]term{
 	{-12, 0, 0.591599780322238e-4},
 	{-12, 1, -0.185465997137856e-2},
 	{-12, 2, 0.104190510480013e-1},
@@ -339,7 +308,7 @@ var bw3V3bPS = [31]bw3Term{
 
 // IAPWS SR3-03(2014), Table 17: coefficients and exponents of psat3(h),
 // Eq. 10.
-var bw3Psat3H = [14]bw3Term{
+var bw3Psat3H = [14]term{
 	{0, 0, 0.600073641753024},
 	{1, 1, -0.936203654849857e1},
 	{1, 3, 0.246590798594147e2},
@@ -358,7 +327,7 @@ var bw3Psat3H = [14]bw3Term{
 
 // IAPWS SR3-03(2014), Table 19: coefficients and exponents of psat3(s),
 // Eq. 11.
-var bw3Psat3S = [10]bw3Term{
+var bw3Psat3S = [10]term{
 	{0, 0, 0.639767553612785},
 	{1, 1, -0.129727445396014e2},
 	{1, 32, -0.224595125848403e16},
@@ -391,25 +360,25 @@ func B3abEnthalpy(p float64) float64 {
 // bw3T3aPHRaw is Eq. 2 of SR3-03(2014): θ = T/760 K as a function of
 // π = p/100 MPa and η = h/2300 kJ/kg.
 func bw3T3aPHRaw(pi, eta float64) float64 {
-	return bw3Sum(bw3T3aPH[:], pi+0.240, eta-0.615)
+	return termSum(bw3T3aPH[:], pi+0.240, eta-0.615)
 }
 
 // bw3T3bPHRaw is Eq. 3 of SR3-03(2014): θ = T/860 K as a function of
 // π = p/100 MPa and η = h/2800 kJ/kg.
 func bw3T3bPHRaw(pi, eta float64) float64 {
-	return bw3Sum(bw3T3bPH[:], pi+0.298, eta-0.720)
+	return termSum(bw3T3bPH[:], pi+0.298, eta-0.720)
 }
 
 // bw3V3aPHRaw is Eq. 4 of SR3-03(2014): ω = v/(0.0028 m³/kg) as a function
 // of π = p/100 MPa and η = h/2100 kJ/kg.
 func bw3V3aPHRaw(pi, eta float64) float64 {
-	return bw3Sum(bw3V3aPH[:], pi+0.128, eta-0.727)
+	return termSum(bw3V3aPH[:], pi+0.128, eta-0.727)
 }
 
 // bw3V3bPHRaw is Eq. 5 of SR3-03(2014): ω = v/(0.0088 m³/kg) as a function
 // of π = p/100 MPa and η = h/2800 kJ/kg.
 func bw3V3bPHRaw(pi, eta float64) float64 {
-	return bw3Sum(bw3V3bPH[:], pi+0.0661, eta-0.720)
+	return termSum(bw3V3bPH[:], pi+0.0661, eta-0.720)
 }
 
 // Region3TFromPH returns the temperature T, K, of a region-3 state from
@@ -452,25 +421,25 @@ func Region3VFromPH(p, h float64) float64 {
 // bw3T3aPSRaw is Eq. 6 of SR3-03(2014): θ = T/760 K as a function of
 // π = p/100 MPa and σ = s/4.4 kJ/(kg·K).
 func bw3T3aPSRaw(pi, sigma float64) float64 {
-	return bw3Sum(bw3T3aPS[:], pi+0.240, sigma-0.703)
+	return termSum(bw3T3aPS[:], pi+0.240, sigma-0.703)
 }
 
 // bw3T3bPSRaw is Eq. 7 of SR3-03(2014): θ = T/860 K as a function of
 // π = p/100 MPa and σ = s/5.3 kJ/(kg·K).
 func bw3T3bPSRaw(pi, sigma float64) float64 {
-	return bw3Sum(bw3T3bPS[:], pi+0.760, sigma-0.818)
+	return termSum(bw3T3bPS[:], pi+0.760, sigma-0.818)
 }
 
 // bw3V3aPSRaw is Eq. 8 of SR3-03(2014): ω = v/(0.0028 m³/kg) as a function
 // of π = p/100 MPa and σ = s/4.4 kJ/(kg·K).
 func bw3V3aPSRaw(pi, sigma float64) float64 {
-	return bw3Sum(bw3V3aPS[:], pi+0.187, sigma-0.755)
+	return termSum(bw3V3aPS[:], pi+0.187, sigma-0.755)
 }
 
 // bw3V3bPSRaw is Eq. 9 of SR3-03(2014): ω = v/(0.0088 m³/kg) as a function
 // of π = p/100 MPa and σ = s/5.3 kJ/(kg·K).
 func bw3V3bPSRaw(pi, sigma float64) float64 {
-	return bw3Sum(bw3V3bPS[:], pi+0.298, sigma-0.816)
+	return termSum(bw3V3bPS[:], pi+0.298, sigma-0.816)
 }
 
 // Region3TFromPS returns the temperature T, K, of a region-3 state from
@@ -522,7 +491,7 @@ func Region3VFromPS(p, s float64) float64 {
 // π = psat/22 MPa = Σ nᵢ (η − 1.02)^Iᵢ (η − 0.608)^Jᵢ, η = h/2600 kJ/kg.
 func Region3SatPressureFromH(h float64) float64 {
 	eta := h / 2600
-	return 22 * bw3Sum(bw3Psat3H[:], eta-1.02, eta-0.608)
+	return 22 * termSum(bw3Psat3H[:], eta-1.02, eta-0.608)
 }
 
 // Region3SatPressureFromS returns psat3(s), MPa, the saturation pressure of
@@ -537,5 +506,5 @@ func Region3SatPressureFromH(h float64) float64 {
 // π = psat/22 MPa = Σ nᵢ (σ − 1.03)^Iᵢ (σ − 0.699)^Jᵢ, σ = s/5.2 kJ/(kg·K).
 func Region3SatPressureFromS(s float64) float64 {
 	sigma := s / 5.2
-	return 22 * bw3Sum(bw3Psat3S[:], sigma-1.03, sigma-0.699)
+	return 22 * termSum(bw3Psat3S[:], sigma-1.03, sigma-0.699)
 }

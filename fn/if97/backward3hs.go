@@ -10,12 +10,12 @@ import "math"
 // Formulation 1997 for the Thermodynamic Properties of Water and Steam.
 //
 // Rows are (Iᵢ, Jᵢ, nᵢ) in the order printed in the release; the polynomial
-// evaluation is shared with the SR3-03 equations (bw3Sum). Table numbers are
+// evaluation is shared with the SR3-03 equations (termSum). Table numbers are
 // as recalled from the 2014 edition of SR4-04 and may be off by a few; the
 // equation number named beside each table identifies it without doubt.
 
 // IAPWS SR4-04(2014), Table 3: coefficients and exponents of p3a(h,s), Eq. 1.
-var bw3P3aHS = [33]bw3Term{
+var bw3P3aHS = [33]term{
 	{0, 0, 0.770889828326934e1},
 	{0, 1, -0.260835009128688e2},
 	{0, 5, 0.267416218930389e3},
@@ -52,7 +52,7 @@ var bw3P3aHS = [33]bw3Term{
 }
 
 // IAPWS SR4-04(2014), Table 4: coefficients and exponents of p3b(h,s), Eq. 2.
-var bw3P3bHS = [35]bw3Term{
+var bw3P3bHS = [35]term{
 	{-12, 2, 0.125244360717979e-12},
 	{-12, 10, -0.126599322553713e-1},
 	{-12, 12, 0.506878030140626e1},
@@ -91,7 +91,7 @@ var bw3P3bHS = [35]bw3Term{
 }
 
 // IAPWS SR4-04(2014), Table 9: coefficients and exponents of h′1(s), Eq. 3.
-var bw3HLiq1S = [27]bw3Term{
+var bw3HLiq1S = [27]term{
 	{0, 14, 0.332171191705237},
 	{0, 36, 0.611217706323496e-3},
 	{1, 3, -0.882092478906822e1},
@@ -122,7 +122,7 @@ var bw3HLiq1S = [27]bw3Term{
 }
 
 // IAPWS SR4-04(2014), Table 10: coefficients and exponents of h′3(s), Eq. 4.
-var bw3HLiq3S = [19]bw3Term{
+var bw3HLiq3S = [19]term{
 	{0, 1, 0.822673364673336},
 	{0, 4, 0.181977213534479},
 	{0, 10, -0.112000260313624e-1},
@@ -146,7 +146,7 @@ var bw3HLiq3S = [19]bw3Term{
 
 // IAPWS SR4-04(2014), Table 16: coefficients and exponents of h″2ab(s),
 // Eq. 5.
-var bw3HVap2abS = [30]bw3Term{
+var bw3HVap2abS = [30]term{
 	{1, 8, -0.524581170928788e3},
 	{1, 24, -0.926947218142218e7},
 	{2, 4, -0.237385107491666e3},
@@ -181,7 +181,7 @@ var bw3HVap2abS = [30]bw3Term{
 
 // IAPWS SR4-04(2014), Table 17: coefficients and exponents of h″2c3b(s),
 // Eq. 6.
-var bw3HVap2c3bS = [16]bw3Term{
+var bw3HVap2c3bS = [16]term{
 	{0, 0, 0.104351280732769e1},
 	{0, 3, -0.227807912708513e1},
 	{0, 4, 0.180535256723202e1},
@@ -201,7 +201,7 @@ var bw3HVap2c3bS = [16]bw3Term{
 }
 
 // IAPWS SR4-04(2014), Table 23: coefficients and exponents of hB13(s), Eq. 7.
-var bw3HB13S = [6]bw3Term{
+var bw3HB13S = [6]term{
 	{0, 0, 0.913965547600543},
 	{1, -2, -0.430944856041991e-4},
 	{1, 2, 0.603235694765419e2},
@@ -212,7 +212,7 @@ var bw3HB13S = [6]bw3Term{
 
 // IAPWS SR4-04(2014), Table 25: coefficients and exponents of TB23(h,s),
 // Eq. 8.
-var bw3TB23HS = [25]bw3Term{
+var bw3TB23HS = [25]term{
 	{-12, 10, 0.629096260829810e-3},
 	{-10, 8, -0.823453502583165e-3},
 	{-8, 3, 0.515446951519474e-7},
@@ -242,7 +242,7 @@ var bw3TB23HS = [25]bw3Term{
 
 // IAPWS SR4-04(2014), Table 28: coefficients and exponents of Tsat(h,s),
 // Eq. 9.
-var bw3TsatHS = [36]bw3Term{
+var bw3TsatHS = [36]term{
 	{0, 0, 0.179882673606601},
 	{0, 3, -0.267507455199603},
 	{0, 12, 0.116276722612600e1},
@@ -284,13 +284,13 @@ var bw3TsatHS = [36]bw3Term{
 // bw3P3aHSRaw is Eq. 1 of SR4-04(2014): π = p/99 MPa as a function of
 // η = h/2300 kJ/kg and σ = s/4.4 kJ/(kg·K).
 func bw3P3aHSRaw(eta, sigma float64) float64 {
-	return bw3Sum(bw3P3aHS[:], eta-1.01, sigma-0.750)
+	return termSum(bw3P3aHS[:], eta-1.01, sigma-0.750)
 }
 
 // bw3P3bHSRaw is Eq. 2 of SR4-04(2014): π = p/16.6 MPa as a function of
 // η = h/2800 kJ/kg and σ = s/5.3 kJ/(kg·K), π = 1/Σ nᵢ (η−0.681)^Iᵢ (σ−0.792)^Jᵢ.
 func bw3P3bHSRaw(eta, sigma float64) float64 {
-	return 1 / bw3Sum(bw3P3bHS[:], eta-0.681, sigma-0.792)
+	return 1 / termSum(bw3P3bHS[:], eta-0.681, sigma-0.792)
 }
 
 // Region3PFromHS returns the pressure p, MPa, of a region-3 state from
@@ -325,7 +325,7 @@ func Region3PFromHS(h, s float64) float64 {
 // σ = s/3.8 kJ/(kg·K).
 func SatLiquidEnthalpy1FromS(s float64) float64 {
 	sigma := s / 3.8
-	return 1700 * bw3Sum(bw3HLiq1S[:], sigma-1.09, sigma+0.366e-4)
+	return 1700 * termSum(bw3HLiq1S[:], sigma-1.09, sigma+0.366e-4)
 }
 
 // SatLiquidEnthalpy3FromS returns h′3(s), kJ/kg, the enthalpy of the
@@ -340,7 +340,7 @@ func SatLiquidEnthalpy1FromS(s float64) float64 {
 // σ = s/3.8 kJ/(kg·K).
 func SatLiquidEnthalpy3FromS(s float64) float64 {
 	sigma := s / 3.8
-	return 1700 * bw3Sum(bw3HLiq3S[:], sigma-1.09, sigma+0.366e-4)
+	return 1700 * termSum(bw3HLiq3S[:], sigma-1.09, sigma+0.366e-4)
 }
 
 // SatVapourEnthalpy2ab4FromS returns h″2ab(s), kJ/kg, the enthalpy of the
@@ -356,7 +356,7 @@ func SatLiquidEnthalpy3FromS(s float64) float64 {
 func SatVapourEnthalpy2ab4FromS(s float64) float64 {
 	sigma1 := s / 5.21
 	sigma2 := s / 9.2
-	return 2800 * math.Exp(bw3Sum(bw3HVap2abS[:], 1/sigma1-0.513, sigma2-0.524))
+	return 2800 * math.Exp(termSum(bw3HVap2abS[:], 1/sigma1-0.513, sigma2-0.524))
 }
 
 // SatVapourEnthalpy2c3bFromS returns h″2c3b(s), kJ/kg, the enthalpy of the
@@ -371,7 +371,7 @@ func SatVapourEnthalpy2ab4FromS(s float64) float64 {
 // σ = s/5.9 kJ/(kg·K).
 func SatVapourEnthalpy2c3bFromS(s float64) float64 {
 	sigma := s / 5.9
-	sum := bw3Sum(bw3HVap2c3bS[:], sigma-1.02, sigma-0.726)
+	sum := termSum(bw3HVap2c3bS[:], sigma-1.02, sigma-0.726)
 	sum *= sum
 	return 2800 * sum * sum
 }
@@ -388,7 +388,7 @@ func SatVapourEnthalpy2c3bFromS(s float64) float64 {
 // σ = s/3.8 kJ/(kg·K).
 func B13Enthalpy(s float64) float64 {
 	sigma := s / 3.8
-	return 1700 * bw3Sum(bw3HB13S[:], sigma-0.884, sigma-0.864)
+	return 1700 * termSum(bw3HB13S[:], sigma-0.884, sigma-0.864)
 }
 
 // B23TFromHS returns TB23(h,s), K, the temperature on the boundary between
@@ -405,7 +405,7 @@ func B13Enthalpy(s float64) float64 {
 // θ = T/900 K = Σ nᵢ (η − 0.727)^Iᵢ (σ − 0.864)^Jᵢ,
 // η = h/3000 kJ/kg, σ = s/5.3 kJ/(kg·K).
 func B23TFromHS(h, s float64) float64 {
-	return 900 * bw3Sum(bw3TB23HS[:], h/3000-0.727, s/5.3-0.864)
+	return 900 * termSum(bw3TB23HS[:], h/3000-0.727, s/5.3-0.864)
 }
 
 // SatTFromHS returns Tsat(h,s), K, the saturation temperature of a
@@ -423,5 +423,5 @@ func B23TFromHS(h, s float64) float64 {
 // θ = T/550 K = Σ nᵢ (η − 0.119)^Iᵢ (σ − 1.07)^Jᵢ,
 // η = h/2800 kJ/kg, σ = s/9.2 kJ/(kg·K).
 func SatTFromHS(h, s float64) float64 {
-	return 550 * bw3Sum(bw3TsatHS[:], h/2800-0.119, s/9.2-1.07)
+	return 550 * termSum(bw3TsatHS[:], h/2800-0.119, s/9.2-1.07)
 }

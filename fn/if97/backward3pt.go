@@ -77,7 +77,7 @@ func (b *sr5Bound) temperature(p float64) float64 {
 	}
 	theta := 0.0
 	for k, n := range b.n {
-		theta += n * sr5Powi(x, b.i[k])
+		theta += n * powi(x, b.i[k])
 	}
 	return theta
 }
@@ -301,13 +301,6 @@ func Region3VFromPT(p, T float64) float64 {
 	return eq.vStar * eq.omega(p/eq.pStar, T/eq.tStar)
 }
 
-// sr5Term is one row (Iᵢ, Jᵢ, nᵢ) of a coefficient table of SR5-05(2016)
-// Eq. (4).
-type sr5Term struct {
-	i, j int
-	n    float64
-}
-
 // sr5Equation holds the reducing quantities v*, p*, T*, the exponents a, b,
 // c, d, e of SR5-05(2016) Eq. (4) (Table 4 for 3a to 3t, the matching table
 // of section 4 for 3u to 3z) and the coefficient table of one sub-region.
@@ -317,7 +310,7 @@ type sr5Equation struct {
 	vStar, pStar, tStar float64
 	a, b, c, d, e       float64
 	expForm             bool
-	terms               []sr5Term
+	terms               []term
 }
 
 // omega evaluates SR5-05(2016) Eq. (4),
@@ -342,7 +335,7 @@ func (q *sr5Equation) omega(pi, theta float64) float64 {
 	}
 	sum := 0.0
 	for _, t := range q.terms {
-		sum += t.n * sr5Powi(x, t.i) * sr5Powi(y, t.j)
+		sum += t.n * powi(x, t.I) * powi(y, t.J)
 	}
 	if q.expForm {
 		return math.Exp(sum)
@@ -355,23 +348,6 @@ func (q *sr5Equation) omega(pi, theta float64) float64 {
 		return sum * sum
 	}
 	return math.Pow(sum, q.e)
-}
-
-// sr5Powi returns x^k for integer k by repeated squaring.
-func sr5Powi(x float64, k int) float64 {
-	if k < 0 {
-		x = 1 / x
-		k = -k
-	}
-	r := 1.0
-	for k > 0 {
-		if k&1 != 0 {
-			r *= x
-		}
-		x *= x
-		k >>= 1
-	}
-	return r
 }
 
 // sr5Equations holds the 26 sub-region equations, indexed by letter − 'a'.
@@ -408,7 +384,7 @@ var sr5Equations = [26]sr5Equation{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3a (Table 6), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3a = [...]sr5Term{
+var sr5Terms3a = [...]term{
 	{-12, 5, 0.110879558823853e-2},
 	{-12, 10, 0.572616740810616e3},
 	{-12, 12, -0.767051948380852e5},
@@ -442,7 +418,7 @@ var sr5Terms3a = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3b (Table 7), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3b = [...]sr5Term{
+var sr5Terms3b = [...]term{
 	{-12, 10, -0.827670470003621e-1},
 	{-12, 12, 0.416887126010565e2},
 	{-10, 8, 0.483651982197059e-1},
@@ -478,7 +454,7 @@ var sr5Terms3b = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3c (Table 8), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3c = [...]sr5Term{
+var sr5Terms3c = [...]term{
 	{-12, 6, 0.311967788763030e1},
 	{-12, 8, 0.276713458847564e5},
 	{-12, 10, 0.322583103403269e8},
@@ -517,7 +493,7 @@ var sr5Terms3c = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3d (Table 9), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3d = [...]sr5Term{
+var sr5Terms3d = [...]term{
 	{-12, 4, -0.452484847171645e-9},
 	{-12, 6, 0.315210389538801e-4},
 	{-12, 7, -0.214991352047545e-2},
@@ -559,7 +535,7 @@ var sr5Terms3d = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3e (Table 10), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3e = [...]sr5Term{
+var sr5Terms3e = [...]term{
 	{-12, 14, 0.715815808404721e9},
 	{-12, 16, -0.114328360753449e12},
 	{-10, 3, 0.376531002015720e-11},
@@ -592,7 +568,7 @@ var sr5Terms3e = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3f (Table 11), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3f = [...]sr5Term{
+var sr5Terms3f = [...]term{
 	{0, -3, -0.251756547792325e-7},
 	{0, -2, 0.601307193668763e-5},
 	{0, -1, -0.100615977450049e-2},
@@ -638,7 +614,7 @@ var sr5Terms3f = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3g (Table 12), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3g = [...]sr5Term{
+var sr5Terms3g = [...]term{
 	{-12, 7, 0.412209020652996e-4},
 	{-12, 12, -0.114987238280587e7},
 	{-12, 14, 0.948180885032080e10},
@@ -680,7 +656,7 @@ var sr5Terms3g = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3h (Table 13), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3h = [...]sr5Term{
+var sr5Terms3h = [...]term{
 	{-12, 8, 0.561379678887577e-1},
 	{-12, 12, 0.774135421587083e10},
 	{-10, 4, 0.111482975877938e-8},
@@ -713,7 +689,7 @@ var sr5Terms3h = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3i (Table 14), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3i = [...]sr5Term{
+var sr5Terms3i = [...]term{
 	{0, 0, 0.106905684359136e1},
 	{0, 1, -0.148620857922333e1},
 	{0, 10, 0.259862256980408e15},
@@ -759,7 +735,7 @@ var sr5Terms3i = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3j (Table 15), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3j = [...]sr5Term{
+var sr5Terms3j = [...]term{
 	{0, -1, -0.111371317395540e-3},
 	{0, 0, 0.100342892423685e1},
 	{0, 1, 0.530615581928979e1},
@@ -792,7 +768,7 @@ var sr5Terms3j = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3k (Table 16), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3k = [...]sr5Term{
+var sr5Terms3k = [...]term{
 	{-2, 10, -0.401215699576099e9},
 	{-2, 12, 0.484501478318406e11},
 	{-1, -5, 0.394721471363678e-14},
@@ -830,7 +806,7 @@ var sr5Terms3k = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3l (Table 17), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3l = [...]sr5Term{
+var sr5Terms3l = [...]term{
 	{-12, 14, 0.260702058647537e10},
 	{-12, 16, -0.188277213604704e15},
 	{-12, 18, 0.554923870289667e19},
@@ -877,7 +853,7 @@ var sr5Terms3l = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3m (Table 18), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3m = [...]sr5Term{
+var sr5Terms3m = [...]term{
 	{0, 0, 0.811384363481847},
 	{3, 0, -0.568199310990094e4},
 	{8, 0, -0.178657198172556e11},
@@ -922,7 +898,7 @@ var sr5Terms3m = [...]sr5Term{
 
 // SR5-05(2016), coefficient table of sub-region 3n (Table 19), Iᵢ, Jᵢ, nᵢ,
 // for the exponential form Eq. (5).
-var sr5Terms3n = [...]sr5Term{
+var sr5Terms3n = [...]term{
 	{0, -12, 0.280967799943151e-38},
 	{3, -12, 0.614869006573609e-30},
 	{4, -12, 0.582238667048942e-27},
@@ -965,7 +941,7 @@ var sr5Terms3n = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3o (Table 20), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3o = [...]sr5Term{
+var sr5Terms3o = [...]term{
 	{0, -12, 0.128746023979718e-34},
 	{0, -4, -0.735234770382342e-11},
 	{0, -1, 0.289078692149150e-2},
@@ -993,7 +969,7 @@ var sr5Terms3o = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3p (Table 21), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3p = [...]sr5Term{
+var sr5Terms3p = [...]term{
 	{0, -1, -0.982825342010366e-4},
 	{0, 0, 0.105145700850612e1},
 	{0, 1, 0.116033094095084e3},
@@ -1024,7 +1000,7 @@ var sr5Terms3p = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3q (Table 22), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3q = [...]sr5Term{
+var sr5Terms3q = [...]term{
 	{-12, 10, -0.820433843259950e5},
 	{-12, 12, 0.473271518461586e11},
 	{-10, 6, -0.805950021005413e-1},
@@ -1052,7 +1028,7 @@ var sr5Terms3q = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3r (Table 23), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3r = [...]sr5Term{
+var sr5Terms3r = [...]term{
 	{-8, 6, 0.144165955660863e-2},
 	{-8, 14, -0.701438599628258e13},
 	{-3, -3, -0.830946716459219e-16},
@@ -1083,7 +1059,7 @@ var sr5Terms3r = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3s (Table 24), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3s = [...]sr5Term{
+var sr5Terms3s = [...]term{
 	{-12, 20, -0.532466612140254e23},
 	{-12, 24, 0.100415480000824e32},
 	{-10, 22, -0.191540001821367e30},
@@ -1116,7 +1092,7 @@ var sr5Terms3s = [...]sr5Term{
 }
 
 // SR5-05(2016), coefficient table of sub-region 3t (Table 25), Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3t = [...]sr5Term{
+var sr5Terms3t = [...]term{
 	{0, 0, 0.155287249586268e1},
 	{0, 1, 0.664235115009031e1},
 	{0, 4, -0.289366236727210e4},
@@ -1154,7 +1130,7 @@ var sr5Terms3t = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3u,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3u = [...]sr5Term{
+var sr5Terms3u = [...]term{
 	{-12, 14, 0.122088349258355e18},
 	{-10, 10, 0.104216468608488e10},
 	{-10, 12, -0.882666931564652e16},
@@ -1197,7 +1173,7 @@ var sr5Terms3u = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3v,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3v = [...]sr5Term{
+var sr5Terms3v = [...]term{
 	{-10, -8, -0.415652812061591e-54},
 	{-8, -12, 0.177441742924043e-60},
 	{-6, -12, -0.357078668203377e-54},
@@ -1241,7 +1217,7 @@ var sr5Terms3v = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3w,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3w = [...]sr5Term{
+var sr5Terms3w = [...]term{
 	{-12, 8, -0.586219133817016e-7},
 	{-12, 14, -0.894460355005526e11},
 	{-10, -1, 0.531168037519774e-30},
@@ -1281,7 +1257,7 @@ var sr5Terms3w = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3x,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3x = [...]sr5Term{
+var sr5Terms3x = [...]term{
 	{-8, 14, 0.377373741298151e19},
 	{-6, 10, -0.507100883722913e13},
 	{-5, 10, -0.103363225598860e16},
@@ -1322,7 +1298,7 @@ var sr5Terms3x = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3y,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3y = [...]sr5Term{
+var sr5Terms3y = [...]term{
 	{0, -3, -0.525597995024633e-9},
 	{0, 1, 0.583441305228407e4},
 	{0, 5, -0.134778968457925e17},
@@ -1347,7 +1323,7 @@ var sr5Terms3y = [...]sr5Term{
 
 // SR5-05(2016), section 4, coefficient table of auxiliary sub-region 3z,
 // Iᵢ, Jᵢ, nᵢ.
-var sr5Terms3z = [...]sr5Term{
+var sr5Terms3z = [...]term{
 	{-8, 3, 0.244007892290650e-10},
 	{-6, 6, -0.463057430331242e7},
 	{-5, 6, 0.728803274777712e10},

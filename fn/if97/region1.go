@@ -8,7 +8,7 @@ const (
 
 // r1Coef holds the coefficients and exponents of the dimensionless Gibbs
 // free energy of region 1, R7-97(2012) Table 2, rows i = 1 to 34.
-var r1Coef = [...]regTerm{
+var r1Coef = [...]term{
 	{0, -2, 0.14632971213167},
 	{0, -1, -0.84548187169114},
 	{0, 0, -0.37563603672040e1},

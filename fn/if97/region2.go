@@ -9,7 +9,7 @@ const (
 
 // r2IdealCoef holds the exponents J⁰ and coefficients n⁰ of the ideal-gas
 // part of region 2, R7-97(2012) Table 10, rows i = 1 to 9 (I is unused: 0).
-var r2IdealCoef = [...]regTerm{
+var r2IdealCoef = [...]term{
 	{0, 0, -0.96927686500217e1},
 	{0, 1, 0.10086655968018e2},
 	{0, -5, -0.56087911283020e-2},
@@ -23,7 +23,7 @@ var r2IdealCoef = [...]regTerm{
 
 // r2ResidualCoef holds the coefficients and exponents of the residual
 // part of region 2, R7-97(2012) Table 11, rows i = 1 to 43.
-var r2ResidualCoef = [...]regTerm{
+var r2ResidualCoef = [...]term{
 	{1, 0, -0.17731742473213e-2},
 	{1, 1, -0.17834862292358e-1},
 	{1, 2, -0.45996013696365e-1},
@@ -73,7 +73,7 @@ var r2ResidualCoef = [...]regTerm{
 // ideal-gas part of the metastable-vapour equation, R7-97(2012) Eq. 19
 // (section 6.2): the rows of Table 10 with n⁰₁ and n⁰₂ replaced by the values
 // given there.
-var r2MetastableIdealCoef = [...]regTerm{
+var r2MetastableIdealCoef = [...]term{
 	{0, 0, -0.96937268393049e1},
 	{0, 1, 0.10087275970006e2},
 	{0, -5, -0.56087911283020e-2},
@@ -88,7 +88,7 @@ var r2MetastableIdealCoef = [...]regTerm{
 // r2MetastableResidualCoef holds the coefficients and exponents of the
 // residual part of the metastable-vapour equation, R7-97(2012) Table 16, rows
 // i = 1 to 13.
-var r2MetastableResidualCoef = [...]regTerm{
+var r2MetastableResidualCoef = [...]term{
 	{1, 0, -0.73362260186506e-2},
 	{1, 2, -0.88223831943146e-1},
 	{1, 5, -0.72334555213245e-1},

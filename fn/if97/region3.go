@@ -2,14 +2,14 @@ package if97
 
 import "math"
 
-// r3N1 is n₁, the coefficient of the logarithmic regTerm of region 3,
+// r3N1 is n₁, the coefficient of the logarithmic term of region 3,
 // R7-97(2012) Table 30, row i = 1.
 const r3N1 = 0.10658070028513e1
 
 // r3Coef holds the coefficients and exponents of the polynomial part of
 // the dimensionless Helmholtz free energy of region 3, R7-97(2012) Table 30,
 // rows i = 2 to 40.
-var r3Coef = [...]regTerm{
+var r3Coef = [...]term{
 	{0, 0, -0.15732845290239e2},
 	{0, 1, 0.20944396974307e2},
 	{0, 2, -0.76867707878716e1},

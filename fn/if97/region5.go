@@ -9,7 +9,7 @@ const (
 // r5IdealCoef holds the exponents J⁰ and coefficients n⁰ of the
 // ideal-gas part of region 5, R7-97(2012) Table 37, rows i = 1 to 6 (I is
 // unused: 0).
-var r5IdealCoef = [...]regTerm{
+var r5IdealCoef = [...]term{
 	{0, 0, -0.13179983674201e2},
 	{0, 1, 0.68540841634434e1},
 	{0, -3, -0.24805148933466e-1},
@@ -20,7 +20,7 @@ var r5IdealCoef = [...]regTerm{
 
 // r5ResidualCoef holds the coefficients and exponents of the residual
 // part of region 5, R7-97(2012) Table 38, rows i = 1 to 6.
-var r5ResidualCoef = [...]regTerm{
+var r5ResidualCoef = [...]term{
 	{1, 1, 0.15736404855259e-2},
 	{1, 2, 0.90153761673944e-3},
 	{1, 3, -0.50270077677648e-2},

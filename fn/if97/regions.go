@@ -2,9 +2,10 @@ package if97
 
 import "math"
 
-// regTerm is one row of an IF97 coefficient table: the exponents I and J and
-// the coefficient n of a term n·a^I·b^J.
-type regTerm struct {
+// term is one row of an IF97 coefficient table: the exponents I and J and
+// the coefficient n of a term n·a^I·b^J. Every table of the forward and
+// backward equations is a []term or an array of them.
+type term struct {
 	I, J int
 	n    float64
 }
@@ -21,7 +22,7 @@ func (d regDerivs) plus(e regDerivs) regDerivs {
 }
 
 // regPolySum returns Σ n·a^I·b^J over rows, with its derivatives in a and b.
-func regPolySum(rows []regTerm, a, b float64) regDerivs {
+func regPolySum(rows []term, a, b float64) regDerivs {
 	var d regDerivs
 	for _, r := range rows {
 		a0, a1, a2 := regPowDerivs(a, r.I)
@@ -46,15 +47,15 @@ func regPowDerivs(x float64, k int) (p0, p1, p2 float64) {
 	case k == 1:
 		return x, 1, 0
 	case x == 0:
-		return regPowi(x, k), float64(k) * regPowi(x, k-1), float64(k*(k-1)) * regPowi(x, k-2)
+		return powi(x, k), float64(k) * powi(x, k-1), float64(k*(k-1)) * powi(x, k-2)
 	}
-	q := regPowi(x, k-2) // one power, the other two by multiplication
+	q := powi(x, k-2) // one power, the other two by multiplication
 	return q * x * x, float64(k) * q * x, float64(k*(k-1)) * q
 }
 
-// regPowi returns x^k for an integer k by repeated squaring; the IF97 tables
+// powi returns x^k for an integer k by repeated squaring; the IF97 tables
 // use integer exponents only, where this is faster than math.Pow.
-func regPowi(x float64, k int) float64 {
+func powi(x float64, k int) float64 {
 	if k < 0 {
 		x, k = 1/x, -k
 	}
@@ -69,10 +70,21 @@ func regPowi(x float64, k int) float64 {
 	return r
 }
 
+// termSum returns Σ n·a^I·b^J over the rows of a coefficient table, the
+// common form of the backward equations (R7-97(2012), SR2-01, SR3-03,
+// SR4-04, SR5-05).
+func termSum(rows []term, a, b float64) float64 {
+	var sum float64
+	for _, r := range rows {
+		sum += r.n * powi(a, r.I) * powi(b, r.J)
+	}
+	return sum
+}
+
 // regIdealGamma returns γ⁰ = ln π + Σ n⁰ᵢ τ^J⁰ᵢ and its derivatives, the form
 // of the ideal-gas part of regions 2 and 5 (R7-97(2012) Eqs. 16, 19 and 33).
 // Every row has I = 0.
-func regIdealGamma(rows []regTerm, pi, tau float64) regDerivs {
+func regIdealGamma(rows []term, pi, tau float64) regDerivs {
 	d := regPolySum(rows, pi, tau)
 	d.f += math.Log(pi)
 	d.fa += 1 / pi
