@@ -1,0 +1,254 @@
+package workbook_test
+
+import (
+	"archive/zip"
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"math/rand"
+	"regexp"
+	"strings"
+	"testing"
+
+	"github.com/xuri/excelize/v2"
+
+	"steamcell/fn"
+	"steamcell/workbook"
+)
+
+// TestCSV: CSV input is read (semicolons, Latin-1, numbers as numbers) and
+// written as .xlsx.
+func TestCSV(t *testing.T) {
+	csv := "Point;Pressure [psig];Temperature [\xb0F];Note\r\n" +
+		"P1;150;420;first\r\n" +
+		"P2;152.5;\"430\";\r\n" +
+		"\r\n" +
+		"P3;;410;no gauge\r\n"
+	f, sum := fillBytes(t, []byte(csv), "log.csv", opts())
+	if got := f.GetSheetList(); len(got) != 2 || got[0] != "log" {
+		t.Fatalf("sheets %q, want log and the summary", got)
+	}
+	if n := verifySheet(t, f, "log", 2, 5, [2]in{{"B", fn.Pressure, "psig"}, {"C", fn.Temperature, "°F"}}, outCols{"E", "F", "G", "H", "I", "J"}); n != 2 {
+		t.Errorf("%d rows verified, want 2", n)
+	}
+	if got := raw(t, f, "log", "E5"); got != "two inputs needed, found one: B5 is blank" {
+		t.Errorf("E5 = %q", got)
+	}
+	if typ, _ := f.GetCellType("log", "B2"); typ != excelize.CellTypeNumber && typ != excelize.CellTypeUnset {
+		t.Errorf("B2 has type %v, want a number", typ)
+	}
+	if len(sum.Notes) != 1 || !strings.Contains(sum.Notes[0], "Latin-1") {
+		t.Errorf("notes %q, want one about Latin-1", sum.Notes)
+	}
+	if sum.Blank != 1 {
+		t.Errorf("blank rows %d, want 1", sum.Blank)
+	}
+}
+
+// TestFormulaInputs: an input formula with a stored result is read through
+// that result (even where calculating would give another), and the status
+// says so.
+func TestFormulaInputs(t *testing.T) {
+	f := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{nil, 300.0}, []any{nil, 310.0})
+	mustf(t, f.SetCellFormula("Data", "A2", "1+1"), "formula")
+	mustf(t, f.SetCellFormula("Data", "A3", "2+3"), "formula")
+	data := withStoredResult(t, save(t, f), "A2", "1+1", "10")
+	out, _ := fillBytes(t, data, "formulas.xlsx", opts())
+	ins := [2]in{{"A", fn.Pressure, "bar"}, {"B", fn.Temperature, "°C"}}
+	oc := outCols{"C", "D", "E", "F", "G", "H"}
+	if got, want := raw(t, out, "Data", "C2"), "ok (A2: stored formula result)"; got != want {
+		t.Errorf("C2 = %q, want %q", got, want)
+	}
+	verifyRow(t, out, "Data", 2, [2]string{"10", "300"}, ins, oc)
+	if got, want := raw(t, out, "Data", "C3"), "ok (A3: formula calculated by steamcell)"; got != want {
+		t.Errorf("C3 = %q, want %q", got, want)
+	}
+	verifyRow(t, out, "Data", 3, [2]string{"5", "310"}, ins, oc)
+	if fx, _ := out.GetCellFormula("Data", "A2"); fx != "1+1" {
+		t.Errorf("A2 formula %q, want it kept", fx)
+	}
+}
+
+// withStoredResult rewrites the sheet XML of a workbook so that the formula
+// of cell holds a stored result, as a spreadsheet program saves it
+// (excelize writes formulas without results).
+func withStoredResult(t *testing.T, data []byte, cell, formula, result string) []byte {
+	t.Helper()
+	zr, err := zip.NewReader(bytes.NewReader(data), int64(len(data)))
+	mustf(t, err, "read zip")
+	var b bytes.Buffer
+	zw := zip.NewWriter(&b)
+	found := false
+	for _, zf := range zr.File {
+		r, err := zf.Open()
+		mustf(t, err, "open %s", zf.Name)
+		content, err := io.ReadAll(r)
+		mustf(t, err, "read %s", zf.Name)
+		if zf.Name == "xl/worksheets/sheet1.xml" {
+			re := regexp.MustCompile(fmt.Sprintf(`<c r="%s"[^>]*><f>%s</f></c>`, cell, regexp.QuoteMeta(formula)))
+			found = re.Match(content)
+			content = re.ReplaceAll(content, []byte(fmt.Sprintf(`<c r="%s"><f>%s</f><v>%s</v></c>`, cell, formula, result)))
+		}
+		w, err := zw.Create(zf.Name)
+		mustf(t, err, "zip %s", zf.Name)
+		_, err = w.Write(content)
+		mustf(t, err, "zip %s", zf.Name)
+	}
+	mustf(t, zw.Close(), "close zip")
+	if !found {
+		t.Fatalf("formula cell %s not found in the sheet XML", cell)
+	}
+	return b.Bytes()
+}
+
+// TestFillTwice: a filled workbook filled again keeps the first results
+// and puts the new ones further right; the first results are not taken for
+// inputs.
+func TestFillTwice(t *testing.T) {
+	once, _ := fillBytes(t, goodWorkbook(t), "good.xlsx", opts())
+	o := opts()
+	o.Add = []string{"t", "p", "h"} // headers that would read as inputs
+	twice, sum := fillBytes(t, save(t, once), "good_filled.xlsx", o)
+	if got := sum.Sheets[0].Pairs[0].Outputs[0].Letter; got != "J" {
+		t.Errorf("second results start in %s, want J", got)
+	}
+	for cell, want := range map[string]string{"D1": "Status (steamcell)", "E1": "h [kJ/kg]", "J1": "Status (steamcell)", "K1": "T [°C]", "L1": "p [kPa]", "M1": "h [kJ/kg]", "K2": "300", "L2": "1000"} {
+		if got := raw(t, twice, "Data", cell); got != want {
+			t.Errorf("%s = %q, want %q", cell, got, want)
+		}
+	}
+	if got := twice.GetSheetList(); len(got) != 3 || got[2] != "steamcell summary 2" {
+		t.Errorf("sheets %q, want a second summary", got)
+	}
+	// A third fill still finds the same inputs: columns right of a status
+	// column are never inputs.
+	_, sum = fillBytes(t, save(t, twice), "again.xlsx", o)
+	if got := sum.Sheets[0].Pairs[0].Inputs; got[0].Letter != "B" || got[1].Letter != "C" {
+		t.Errorf("third fill inputs %+v, want B and C", got)
+	}
+}
+
+// TestHiddenSheet: hidden sheets are skipped unless named.
+func TestHiddenSheet(t *testing.T) {
+	f := sheetOf(t, []any{"Note"}, []any{"see the hidden sheet"})
+	_, err := f.NewSheet("Raw")
+	mustf(t, err, "sheet")
+	mustf(t, f.SetSheetRow("Raw", "A1", &[]any{"P [bar]", "T [°C]"}), "row")
+	mustf(t, f.SetSheetRow("Raw", "A2", &[]any{10.0, 300.0}), "row")
+	mustf(t, f.SetSheetVisible("Raw", false), "hide")
+	data := save(t, f)
+	if err := fillErr(t, data, "hidden.xlsx", opts()); !errors.Is(err, workbook.ErrNoInputs) {
+		t.Errorf("all sheets: %v, want ErrNoInputs (the only sheet with inputs is hidden)", err)
+	}
+	o := opts()
+	o.Sheet = "Raw"
+	out, _ := fillBytes(t, data, "hidden.xlsx", o)
+	if n := verifySheet(t, out, "Raw", 2, 2, [2]in{{"A", fn.Pressure, "bar"}, {"B", fn.Temperature, "°C"}}, outCols{"C", "D", "E", "F", "G", "H"}); n != 1 {
+		t.Errorf("%d rows verified, want 1", n)
+	}
+	if v, _ := out.GetSheetVisible("Raw"); v {
+		t.Errorf("the filled hidden sheet became visible")
+	}
+}
+
+// TestChunks fills more rows than one chunk, in parallel, and checks every
+// row landed in its place.
+func TestChunks(t *testing.T) {
+	const n = 9000 // over two chunks of 4096
+	f := excelize.NewFile()
+	sw, err := f.NewStreamWriter("Sheet1")
+	mustf(t, err, "stream")
+	mustf(t, sw.SetRow("A1", []any{"P [MPa]", "T [K]"}), "header")
+	rng := rand.New(rand.NewSource(6)) // fixed seed
+	for r := 2; r <= n+1; r++ {
+		cell, _ := excelize.CoordinatesToCellName(1, r)
+		// Region 1, 2 and 3 states: 0.1 to 40 MPa, 300 to 900 K.
+		mustf(t, sw.SetRow(cell, []any{0.1 + 39.9*rng.Float64(), 300 + 600*rng.Float64()}), "row")
+	}
+	mustf(t, sw.Flush(), "flush")
+	out, sum := fillBytes(t, save(t, f), "many.xlsx", opts())
+	if sum.Rows != n {
+		t.Errorf("%d rows, want %d", sum.Rows, n)
+	}
+	ins := [2]in{{"A", fn.Pressure, "MPa"}, {"B", fn.Temperature, "K"}}
+	got := verifySheet(t, out, "Sheet1", 2, n+1, ins, outCols{"C", "D", "E", "F", "G", "H"})
+	if got != sum.OK+sum.Flagged {
+		t.Errorf("%d rows verified, want %d solved", got, sum.OK+sum.Flagged)
+	}
+	if sum.Failed != 0 {
+		t.Errorf("%d rows failed, want none", sum.Failed)
+	}
+}
+
+// TestSheetLimits: a row at the last row of a sheet is filled; a sheet
+// with data in its last column has no room for results.
+func TestSheetLimits(t *testing.T) {
+	f := excelize.NewFile()
+	sw, err := f.NewStreamWriter("Sheet1")
+	mustf(t, err, "stream")
+	mustf(t, sw.SetRow("A1", []any{"P [bar]", "T [°C]"}), "header")
+	mustf(t, sw.SetRow("A2", []any{10.0, 300.0}), "row")
+	last := fmt.Sprintf("A%d", excelize.TotalRows)
+	mustf(t, sw.SetRow(last, []any{20.0, 400.0}), "last row")
+	mustf(t, sw.Flush(), "flush")
+	out, sum := fillBytes(t, save(t, f), "tall.xlsx", opts())
+	ins := [2]in{{"A", fn.Pressure, "bar"}, {"B", fn.Temperature, "°C"}}
+	oc := outCols{"C", "D", "E", "F", "G", "H"}
+	verifyRow(t, out, "Sheet1", excelize.TotalRows, [2]string{"20", "400"}, ins, oc)
+	if sum.Rows != 2 || sum.OK != 2 {
+		t.Errorf("rows %d ok %d, want 2 and 2", sum.Rows, sum.OK)
+	}
+
+	wide := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{10.0, 300.0})
+	mustf(t, wide.SetCellValue("Data", "XFA1", "far right"), "far cell")
+	if err := fillErr(t, save(t, wide), "wide.xlsx", opts()); !errors.Is(err, workbook.ErrNoRoom) || !strings.Contains(err.Error(), "XFA") {
+		t.Errorf("wide sheet: %v, want ErrNoRoom naming XFA", err)
+	}
+}
+
+// TestMaxCells: a sheet beyond the cell bound is refused before it is
+// loaded.
+func TestMaxCells(t *testing.T) {
+	o := opts()
+	o.MaxCells = 20 // 3 rows × (3 data + 6 result columns) = 27 cells
+	err := fillErr(t, goodWorkbook(t), "good.xlsx", o)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "27 cells") {
+		t.Errorf("error %v, want ErrTooLarge counting 27 cells", err)
+	}
+	o.MaxCells = 27
+	fillBytes(t, goodWorkbook(t), "good.xlsx", o)
+}
+
+// TestHeaderRow: a header row below the rows searched is named with
+// HeaderRow; a header repeated lower down (as printed sheets repeat it) is
+// no data.
+func TestHeaderRow(t *testing.T) {
+	rows := make([][]any, 0, 130)
+	for i := 0; i < 119; i++ {
+		rows = append(rows, []any{fmt.Sprintf("preamble line %d", i+1)})
+	}
+	rows = append(rows,
+		[]any{"P [bar]", "T [°C]"}, // row 120
+		[]any{10.0, 300.0},
+		[]any{"P [bar]", "T [°C]"}, // repeated
+		[]any{20.0, 400.0},
+	)
+	data := save(t, sheetOf(t, rows...))
+	if err := fillErr(t, data, "deep.xlsx", opts()); !errors.Is(err, workbook.ErrNoInputs) {
+		t.Errorf("header in row 120 without HeaderRow: %v, want ErrNoInputs", err)
+	}
+	o := opts()
+	o.HeaderRow = 120
+	f, sum := fillBytes(t, data, "deep.xlsx", o)
+	if s := sum.Sheets[0]; s.HeaderRow != 120 || s.Rows != 2 || s.OK != 2 || s.Blank != 1 {
+		t.Errorf("sheet %+v; want header row 120, 2 rows ok, the repeated header skipped", s)
+	}
+	if got := raw(t, f, "Data", "C122"); got != "" {
+		t.Errorf("C122 = %q beside the repeated header, want blank", got)
+	}
+	o.Point.Patm = 1.01325 // bar given as MPa
+	if err := fillErr(t, data, "deep.xlsx", o); !errors.Is(err, workbook.ErrBadOption) {
+		t.Errorf("patm 1.01325 MPa: %v, want ErrBadOption", err)
+	}
+}

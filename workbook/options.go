@@ -1,0 +1,145 @@
+package workbook
+
+import (
+	"errors"
+	"time"
+
+	"steamcell/fn/point"
+)
+
+// Defaults of Options.
+const (
+	// DefaultMargin is the distance from saturation, K, within which a
+	// point is flagged.
+	DefaultMargin = 1.0
+	// DefaultUnzipSizeLimit is the most an input workbook may unpack to,
+	// bytes: far above any sheet of test points, far below what would
+	// exhaust a machine.
+	DefaultUnzipSizeLimit = 2 << 30
+	// MaxComments is the most problem comments added to one sheet; the
+	// status column lists every problem.
+	MaxComments = 1000
+	// headerScanRows is how many rows from the top are searched for the
+	// header row.
+	headerScanRows = 100
+)
+
+// DefaultAdd are the properties written when Options.Add is empty.
+var DefaultAdd = []string{"h", "s", "v", "x", "phase"}
+
+// Options are the choices of one fill. The zero Options fills every
+// visible sheet with the default properties in the si unit set.
+type Options struct {
+	// Sheet names the one sheet to fill; "" fills every visible sheet.
+	Sheet string
+	// Map assigns the input columns by hand: "B=p:barg,C=t:C", several
+	// pairs separated by ';'. The unit after ':' may be left out, then it
+	// comes from the header or the unit set. It needs Sheet when the
+	// workbook has more than one sheet.
+	Map string
+	// HeaderRow is the 1-based row of the headers; 0 finds it.
+	HeaderRow int
+	// Add lists the properties to write: symbols of point.Symbols, "all",
+	// "phase" and "region". Empty means DefaultAdd.
+	Add []string
+	// Point gives the unit set of bare numbers and results and the
+	// atmospheric pressure of gauge units.
+	Point point.Options
+	// Margin, K, flags single-phase points this close to saturation; 0
+	// means DefaultMargin and a negative value turns the flag off.
+	Margin float64
+	// Version is the program version written in the summary.
+	Version string
+	// Date is written in the summary; the zero time means now.
+	Date time.Time
+	// Force lets FillFile replace an existing output file.
+	Force bool
+	// UnzipSizeLimit is the most the input may unpack to, bytes; 0 means
+	// DefaultUnzipSizeLimit.
+	UnzipSizeLimit int64
+	// MaxCells bounds the rows × columns (results included) of a sheet to
+	// fill, checked before the sheet is loaded; 0 means no bound. A filled
+	// sheet takes about CellMemory bytes of memory per cell, so a server
+	// sets this from the memory it can give one request.
+	MaxCells int64
+}
+
+// CellMemory is the peak memory of a fill per cell of the filled sheet,
+// bytes, as measured with the 100,000-row benchmark sheet (14 cells a row,
+// 1.2 GB peak resident memory); almost all of it is excelize's model of the
+// sheet and the garbage collector's headroom.
+const CellMemory = 870
+
+// Summary tells what a fill did.
+type Summary struct {
+	Sheets       []SheetSummary
+	SummarySheet string // name of the summary sheet added
+	Rows         int    // data rows with at least one input, all sheets
+	OK           int    // rows whose every point is ok
+	Flagged      int    // rows solved with a "check:" status, none failed
+	Failed       int    // rows with a point that has no values
+	Blank        int    // rows without inputs, skipped
+	Notes        []string
+}
+
+// SheetSummary tells what a fill did on one sheet.
+type SheetSummary struct {
+	Name      string
+	Filled    bool
+	Note      string // why the sheet was not filled, or what to know
+	HeaderRow int    // 1-based; 0 when there is none
+	Pairs     []Pair
+	Rows      int
+	OK        int
+	Flagged   int
+	Failed    int
+	Blank     int
+	Comments  int // problem comments added
+}
+
+// Pair is one pair of input columns and the columns written for it.
+type Pair struct {
+	Label   string // words the two headers share, for result headers; "" for a sheet with one pair
+	Inputs  [2]Column
+	Outputs []Column // the status column first
+	OK      int
+	Flagged int
+	Failed  int
+}
+
+// Column is a column of a sheet.
+type Column struct {
+	Letter string // "C"
+	Header string // the header as written
+	Symbol string // input symbol (p, t, …) or output property (h, phase, status)
+	Unit   string // the unit of its numbers; "" when none
+	Mapped bool   // given by Options.Map
+}
+
+// Kinds of error; test for them with errors.Is. Every error of Fill and
+// FillFile that is about the input or the options is an *Error of one of
+// these kinds; others are faults of the system (disk, memory).
+var (
+	ErrNotWorkbook  = errors.New("not a workbook steamcell can read")
+	ErrPassword     = errors.New("workbook is password-protected")
+	ErrTooLarge     = errors.New("workbook too large")
+	ErrNoSheet      = errors.New("no such sheet")
+	ErrNoInputs     = errors.New("no input columns found")
+	ErrAmbiguous    = errors.New("input columns not clear")
+	ErrBadOption    = errors.New("bad option")
+	ErrNoRoom       = errors.New("no free column to the right of the data")
+	ErrOutputExists = errors.New("output file exists")
+	ErrSamePath     = errors.New("output is the input")
+)
+
+// Error is a problem with the input workbook or the options.
+type Error struct {
+	Kind  error
+	Sheet string // the sheet concerned; may be empty
+	Msg   string // a sentence saying what is wrong and what to do
+}
+
+func (e *Error) Error() string { return e.Msg }
+
+// Unwrap returns the kind.
+func (e *Error) Unwrap() error { return e.Kind }
