@@ -148,7 +148,9 @@ func regionOrderHS(h, s float64) []int {
 		return []int{1, 3, 2, 5}
 	case s <= 5.210887825: // s''(623.15 K), SR4-04(2014) section 4.3
 		return []int{3, 2, 1, 5}
-	case h > 4000:
+	case h > 4200: // above region 2's highest enthalpy (at 1073.15 K, low p)
+		return []int{5, 2, 3, 1}
+	case h > 3850:
 		return []int{2, 5, 3, 1}
 	}
 	return []int{2, 3, 5, 1}
@@ -189,7 +191,7 @@ func solveHS(r int, h, s float64) (if97.Props, bool) {
 			a = 1
 		}
 	}
-	pr, ok := newton2n(r, Enthalpy, h, Entropy, s, a, T, 60, 1e-3)
+	pr, ok := newton2n(r, Enthalpy, h, Entropy, s, a, T, 20, 1e-3)
 	if !ok || if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
 		return pr, false
 	}

@@ -104,6 +104,12 @@ func fromPQ(p float64, in Input) (State, error) {
 // (extended past 1073.15 K, which its regionBox allows) puts the answer
 // above 1073.15 K, region 5 from there.
 func tryVapourAtP(p float64, q Quantity, val, tLo float64) (State, bool) {
+	if t0 := backwardT(2, p, q, val); t0 > TMax+50 && p <= PMaxHigh {
+		// Far above region 2: region 5 straight from the backward estimate.
+		if pr, ok := newton1n(5, q, val, p, math.Min(t0, TMaxHigh), true, 12); ok && pr.T > TMax && pr.T <= TMaxHigh {
+			return singleState(5, pr), true
+		}
+	}
 	pr, ok := tryAtP(2, p, q, val)
 	switch {
 	case ok && pr.T > tLo && pr.T <= TMax:

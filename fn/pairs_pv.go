@@ -126,6 +126,16 @@ func fastPV(p, v float64) (State, bool) {
 		if ok && pr.T < tLiqTop && pr.T >= 285 && pr.AlphaV > 0 {
 			return singleState(1, pr), true
 		}
+	}
+	if p > P13Sat && v > 1/800.0 && v < 1/100.0 {
+		// Region 3: at fixed ρ the pressure rises with T; solve T.
+		t0 := (T13 + if97.B23Temperature(p)) / 2
+		pr, ok := newton1n(3, Pressure, p, 1/v, t0, true, 15)
+		if ok && if97.RegionOf(pr.P, pr.T) == 3 && stableRegion3(&pr) {
+			return singleState(3, pr), true
+		}
+	}
+	if v < 0.0025 {
 		return State{}, false
 	}
 	tIdeal := p * v * mpaM3 / if97.R
@@ -141,4 +151,16 @@ func fastPV(p, v float64) (State, bool) {
 		return singleState(2, pr), true
 	}
 	return State{}, false
+}
+
+// stableRegion3 reports whether a region-3 state is a stable single phase:
+// above Tc always; below it only with a density outside the saturated
+// densities at its temperature (inside lie metastable and unstable states
+// of the Helmholtz equation).
+func stableRegion3(pr *if97.Props) bool {
+	if pr.T >= if97.Tc {
+		return true
+	}
+	rl, rv, ok := if97.Region3SatDensities(pr.T)
+	return ok && (pr.Rho > rl || pr.Rho < rv)
 }

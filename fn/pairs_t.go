@@ -147,6 +147,13 @@ func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, 
 	x0 := (lo + hi) / 2
 	if q == Volume && r != 1 {
 		x0 = math.Log(if97.R * T / (mpaM3 * val))
+		// Newton steps from the ideal-gas pressure usually get there
+		// without the bracket's two end evaluations.
+		if p0 := math.Exp(x0); p0 > pLo && p0 < pHi {
+			if pr, ok := newton1n(r, q, val, p0, T, false, 12); ok && pr.P > pLo && pr.P <= pHi {
+				return pr, true
+			}
+		}
 	}
 	flo, _ := f(lo)
 	fhi, _ := f(hi)

@@ -118,14 +118,8 @@ func fastUV(u, v float64) (State, bool) {
 	}
 	if rho > 100 && rho < 800 {
 		pr, ok := newton1n(3, InternalEnergy, u, rho, 700, true, 20)
-		if ok && if97.RegionOf(pr.P, pr.T) == 3 {
-			if pr.T >= if97.Tc {
-				return singleState(3, pr), true
-			}
-			// Below Tc the density must lie outside the two-phase dome.
-			if rl, rv, ok := if97.Region3SatDensities(pr.T); ok && (rho > rl || rho < rv) {
-				return singleState(3, pr), true
-			}
+		if ok && if97.RegionOf(pr.P, pr.T) == 3 && stableRegion3(&pr) {
+			return singleState(3, pr), true
 		}
 	}
 	return State{}, false
