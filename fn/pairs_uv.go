@@ -97,23 +97,30 @@ func fastUV(u, v float64) (State, bool) {
 		return State{}, false
 	}
 	rho := 1 / v
-	switch {
-	case v < 0.00125: // liquid-like: region 1 from cp ≈ 4.2 kJ/(kg·K)
+	if v < 0.0017 { // liquid-like: region 1 from cp ≈ 4.2 kJ/(kg·K)
 		t0 := math.Min(T13, math.Max(TMin, TMin+u/4.2))
 		pr, ok := newton2n(1, Volume, v, InternalEnergy, u, math.Min(PMax, if97.SatPressure(t0)+5), t0, 20, 1)
 		if st, ok := accept(1, pr, ok); ok {
 			return st, true
 		}
-	case v > 0.004: // vapour-like: u ≈ 2375 + 1.5 (T − 273.15) − 3.5/v kJ/kg, ideal-gas p
+	}
+	if v > 0.0015 { // vapour-like: u ≈ 2375 + 1.5 (T − 273.15) − 3.5/v kJ/kg, ideal-gas p
 		t0 := math.Min(TMaxHigh, math.Max(TMin, TMin+(u+3.5/v-2375)/1.5))
-		r := 2
+		order := [2]int{2, 5}
 		if t0 > TMax {
-			r = 5
+			order = [2]int{5, 2}
 		}
-		p0 := if97.R * t0 / (mpaM3 * v)
-		pr, ok := newton2n(r, Volume, v, InternalEnergy, u, p0, t0, 30, 1)
-		if st, ok := accept(r, pr, ok); ok {
-			return st, true
+		for _, r := range order {
+			t := t0
+			if r == 5 {
+				t = math.Max(t0, TMax+1)
+			} else {
+				t = math.Min(t0, TMax-1)
+			}
+			pr, ok := newton2n(r, Volume, v, InternalEnergy, u, if97.R*t/(mpaM3*v), t, 30, 1)
+			if st, ok := accept(r, pr, ok); ok {
+				return st, true
+			}
 		}
 	}
 	if rho > 100 && rho < 800 {
