@@ -43,47 +43,67 @@ type Options struct {
 // see Dim). The package doc gives the rules for numbers, units, gauge
 // pressure and quality. Every error is an *InputError naming opt.Name.
 func Parse(text string, d Dim, opt Options) (float64, error) {
-	v, _, err := ParseUnit(text, d, opt)
+	v, _, err := parse(text, d, &opt)
 	return v, err
 }
 
 // ParseUnit is Parse that also returns the unit the value was read in,
 // so callers can echo how they understood the input.
 func ParseUnit(text string, d Dim, opt Options) (float64, Unit, error) {
+	v, u, err := parse(text, d, &opt)
+	if err != nil {
+		return 0, Unit{}, err
+	}
+	return v, *u, nil
+}
+
+// parse is ParseUnit returning the unit as a pointer into the registry.
+// The common shapes of text take parseFast; the rest, and every error,
+// parseFull.
+func parse(text string, d Dim, opt *Options) (float64, *Unit, error) {
+	if v, u, ok := parseFast(text, d, opt); ok {
+		return v, u, nil
+	}
+	return parseFull(text, d, opt)
+}
+
+// parseFull reads text by every rule of the package doc.
+func parseFull(text string, d Dim, opt *Options) (float64, *Unit, error) {
 	if !d.valid() {
-		return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrUnknownUnit, Detail: "no quantity given to read the value as"}
+		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrUnknownUnit, Detail: "no quantity given to read the value as"}
 	}
 	num, unitText, kind, detail := splitNumber(text)
 	if kind != nil {
-		return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: kind, Detail: detail}
+		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: kind, Detail: detail}
 	}
 	v, err := strconv.ParseFloat(num, 64)
 	if err != nil {
 		if errors.Is(err, strconv.ErrRange) && math.IsInf(v, 0) {
-			return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNotFinite,
+			return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNotFinite,
 				Detail: fmt.Sprintf("%s is beyond the largest number (about 1.8e308)", num)}
 		}
 		if !errors.Is(err, strconv.ErrRange) { // underflow to zero is fine
-			return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrSyntax,
+			return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrSyntax,
 				Detail: fmt.Sprintf("%q is not a number", num)}
 		}
 	}
 
-	var u Unit
+	units := registry[d].units
+	var u *Unit
 	switch {
 	case unitText != "":
-		var trap string
-		var ok bool
-		if u, trap, ok = find(unitText, d); !ok {
-			return 0, Unit{}, unitError(opt.Name, text, unitText, trap, d)
+		i, trap, ok := find(unitText, d)
+		if !ok {
+			return 0, nil, unitError(opt.Name, text, unitText, trap, d)
 		}
+		u = &units[i]
 		if opt.Unit != "" {
 			sep, err := separateUnit(opt, d)
 			if err != nil {
-				return 0, Unit{}, err
+				return 0, nil, err
 			}
 			if sep.Gauge != u.Gauge {
-				return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrUnitConflict,
+				return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrUnitConflict,
 					Detail: fmt.Sprintf("the text says %s (%s) but the unit given separately is %s (%s); make them agree",
 						u.Name, gaugeWord(u), sep.Name, gaugeWord(sep))}
 			}
@@ -91,20 +111,20 @@ func ParseUnit(text string, d Dim, opt Options) (float64, Unit, error) {
 	case opt.Unit != "":
 		var err error
 		if u, err = separateUnit(opt, d); err != nil {
-			return 0, Unit{}, err
+			return 0, nil, err
 		}
 	default:
-		u = opt.Set.Unit(d)
+		u = &units[opt.Set.index(d)]
 	}
 
 	patm := opt.Patm
 	if patm != 0 && !(patm >= MinPatm && patm <= MaxPatm) {
-		return 0, Unit{}, &InputError{Name: "patm", Text: strconv.FormatFloat(patm, 'g', -1, 64), Dim: Pressure, Err: ErrBadPatm,
+		return 0, nil, &InputError{Name: "patm", Text: strconv.FormatFloat(patm, 'g', -1, 64), Dim: Pressure, Err: ErrBadPatm,
 			Detail: fmt.Sprintf("atmospheric pressure must be given in MPa, between %g and %g MPa", MinPatm, MaxPatm)}
 	}
 	b := u.ToBase(v, patm)
 	if math.IsInf(b, 0) || math.IsNaN(b) {
-		return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNotFinite,
+		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNotFinite,
 			Detail: fmt.Sprintf("%s %s is beyond the largest number in %s", num, u.Name, d.Base().Name)}
 	}
 	if b == 0 {
@@ -113,11 +133,11 @@ func ParseUnit(text string, d Dim, opt Options) (float64, Unit, error) {
 	switch d {
 	case Pressure:
 		if b <= 0 {
-			return 0, Unit{}, pressureError(opt, text, v, u, patm, b)
+			return 0, nil, pressureError(opt, text, v, u, patm, b)
 		}
 	case Temperature:
 		if b <= 0 {
-			return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNegativeAbsolute,
+			return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrNegativeAbsolute,
 				Detail: fmt.Sprintf("%g %s is %.6g K, at or below absolute zero", v, u.Name, b)}
 		}
 	case Quality:
@@ -126,32 +146,32 @@ func ParseUnit(text string, d Dim, opt Options) (float64, Unit, error) {
 			if u.Name == "" {
 				detail = fmt.Sprintf("quality must be a fraction from 0 to 1, or give %% (\"%g %%\")", v)
 			}
-			return 0, Unit{}, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrQualityRange, Detail: detail}
+			return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrQualityRange, Detail: detail}
 		}
 	}
 	return b, u, nil
 }
 
 // separateUnit resolves opt.Unit for d.
-func separateUnit(opt Options, d Dim) (Unit, error) {
+func separateUnit(opt *Options, d Dim) (*Unit, error) {
 	t := strings.TrimSpace(opt.Unit)
-	u, trap, ok := find(t, d)
+	i, trap, ok := find(t, d)
 	if !ok {
 		e := unitError(opt.Name, opt.Unit, t, trap, d)
 		e.Detail = "unit given separately: " + e.Detail
-		return Unit{}, e
+		return nil, e
 	}
-	return u, nil
+	return &registry[d].units[i], nil
 }
 
-func gaugeWord(u Unit) string {
+func gaugeWord(u *Unit) string {
 	if u.Gauge {
 		return "gauge"
 	}
 	return "absolute"
 }
 
-func pressureError(opt Options, text string, v float64, u Unit, patm, b float64) *InputError {
+func pressureError(opt *Options, text string, v float64, u *Unit, patm, b float64) *InputError {
 	e := &InputError{Name: opt.Name, Text: text, Dim: Pressure, Err: ErrNegativeAbsolute}
 	if u.Gauge {
 		if patm == 0 {

@@ -116,11 +116,17 @@ func (s Set) Unit(d Dim) Unit {
 	if !d.valid() {
 		return Unit{}
 	}
+	return registry[d].units[s.index(d)]
+}
+
+// index returns the index in registry[d].units of the set's unit for a
+// valid d.
+func (s *Set) index(d Dim) int {
 	i := s.units[d]
 	if i == 0 {
 		i = sets[0].units[d]
 	}
-	return registry[d].units[i-1]
+	return int(i) - 1
 }
 
 // unitIndex returns 1 + the index of u among the units of its quantity.

@@ -1,6 +1,7 @@
 package units
 
 import (
+	"encoding/binary"
 	"fmt"
 	"strings"
 	"unicode/utf8"
@@ -31,7 +32,14 @@ type Unit struct {
 // StandardAtmosphere, and it is ignored by all other units. ToBase does not
 // check its result; Parse does.
 func (u Unit) ToBase(v, patm float64) float64 {
-	b := (v + u.shift) * u.mul / u.div
+	// Multiplying or dividing by 1 changes no float64, so it is skipped.
+	b := v + u.shift
+	if u.mul != 1 {
+		b *= u.mul
+	}
+	if u.div != 1 {
+		b /= u.div
+	}
 	if u.Gauge {
 		if patm == 0 {
 			patm = StandardAtmosphere
@@ -260,10 +268,22 @@ var caseTraps = [numDims][]caseTrap{
 	},
 }
 
+// trapStart holds, as a set of bytes, the first bytes of the case traps of
+// each quantity: text starting with any other byte springs no trap.
+var trapStart = func() (s [numDims][4]uint64) {
+	for d, traps := range caseTraps {
+		for _, t := range traps {
+			c := t.prefix[0]
+			s[d][c>>6] |= 1 << (c & 63)
+		}
+	}
+	return s
+}()
+
 type dimUnits struct {
 	units []Unit
-	byKey map[string]uint8 // folded spelling -> index in units
-	names []string         // canonical names, for messages
+	keys  keyTable // folded spelling -> index in units
+	names []string // canonical names, for messages
 }
 
 // registry holds the units of each quantity, built once from unitTable.
@@ -274,7 +294,7 @@ func buildRegistry() [numDims]dimUnits {
 	var buf [maxKey]byte
 	for d := Pressure; d <= Dimensionless; d++ {
 		r := &reg[d]
-		r.byKey = make(map[string]uint8)
+		byKey := make(map[string]uint8)
 		for i, s := range unitTable[d] {
 			u := Unit{Name: s.name, Dim: d, Gauge: s.gauge, mul: s.mul, div: s.div, shift: s.shift}
 			if u.mul == 0 {
@@ -286,47 +306,144 @@ func buildRegistry() [numDims]dimUnits {
 			r.units = append(r.units, u)
 			r.names = append(r.names, s.name)
 			for _, sp := range append([]string{s.name}, s.spellings...) {
-				n, ok := foldKey(&buf, sp)
+				n, _, ok := foldKey(&buf, sp)
 				if !ok {
 					panic(fmt.Sprintf("units: spelling %q of %s cannot be folded", sp, d))
 				}
 				k := string(buf[:n])
-				if j, dup := r.byKey[k]; dup && int(j) != i {
+				if strings.ContainsFunc(k, func(r rune) bool { return r < ' ' || r == ',' }) {
+					// parseFast relies on no spelling matching text
+					// with a comma or a control character.
+					panic(fmt.Sprintf("units: spelling %q of %s folds to a comma or control character", sp, d))
+				}
+				if j, dup := byKey[k]; dup && int(j) != i {
 					panic(fmt.Sprintf("units: %s spelling %q of %q folds like one of %q", d, sp, s.name, r.units[j].Name))
 				}
-				r.byKey[k] = uint8(i)
+				byKey[k] = uint8(i)
 			}
 		}
+		r.keys = newKeyTable(byKey)
 	}
 	return reg
+}
+
+// keyTable is a fixed open-addressing hash table from folded spellings to
+// unit indexes, built once and only read after. A slot holds the first and
+// the last eight bytes of its key, which are the whole key up to 16 bytes,
+// so most lookups compare two words and no string.
+type keyTable struct {
+	slots []keySlot // len is a power of two, at least twice the keys
+	shift uint      // 64 - log2(len(slots))
+}
+
+type keySlot struct {
+	lo, hi uint64 // the key's first and last eight bytes (see keyWords)
+	n      uint8  // length of the key
+	idx    uint8  // 1 + index in units; 0: empty slot
+	key    string
+}
+
+func newKeyTable(m map[string]uint8) keyTable {
+	bits := uint(3)
+	for 1<<bits < 2*len(m) {
+		bits++
+	}
+	t := keyTable{slots: make([]keySlot, 1<<bits), shift: 64 - bits}
+	var buf [maxKey]byte
+	for k, i := range m {
+		n := copy(buf[:], k)
+		lo, hi := keyWords(&buf, n)
+		j := t.home(lo, hi)
+		for t.slots[j].idx != 0 {
+			j = (j + 1) & (len(t.slots) - 1)
+		}
+		t.slots[j] = keySlot{lo: lo, hi: hi, n: uint8(n), idx: i + 1, key: k}
+	}
+	return t
+}
+
+// keyWords returns the first eight bytes of the key buf[:n] and, if it is
+// longer, its last eight, little-endian; bytes past n count as zero.
+func keyWords(buf *[maxKey]byte, n int) (lo, hi uint64) {
+	lo = binary.LittleEndian.Uint64(buf[:8])
+	if n < 8 {
+		lo &= 1<<(8*uint(n)) - 1
+	}
+	return lo, keyHi(buf, n)
+}
+
+// keyHi returns the last eight bytes of the key buf[:n] if it is longer
+// than eight bytes, else 0.
+func keyHi(buf *[maxKey]byte, n int) uint64 {
+	if n <= 8 {
+		return 0
+	}
+	return binary.LittleEndian.Uint64(buf[n-8 : n])
+}
+
+// home returns the slot a key starts its search at.
+func (t *keyTable) home(lo, hi uint64) int {
+	const m = 0x9e3779b97f4a7c15 // 2^64 / golden ratio
+	return int((lo ^ hi<<7 ^ hi>>57) * m >> t.shift)
+}
+
+// get returns the unit index stored for the folded spelling buf[:n], whose
+// first eight bytes (keyWords) are lo.
+func (t *keyTable) get(buf *[maxKey]byte, n int, lo uint64) (int, bool) {
+	hi := keyHi(buf, n)
+	for j := t.home(lo, hi); ; j = (j + 1) & (len(t.slots) - 1) {
+		s := &t.slots[j]
+		if s.idx == 0 {
+			return 0, false
+		}
+		if s.lo == lo && s.hi == hi && int(s.n) == n && (n <= 16 || s.key == string(buf[:n])) {
+			return int(s.idx) - 1, true
+		}
+	}
 }
 
 // maxKey bounds the length of a folded unit spelling; longer text is no unit.
 const maxKey = 48
 
+// skipByte marks in asciiFold the ASCII characters that folding drops.
+const skipByte = 0xff
+
+// asciiFold gives the folded form of each ASCII character: letters in
+// lower case, skipByte for spaces, product signs, hyphens, brackets and '^',
+// and the character itself otherwise.
+var asciiFold = func() (t [utf8.RuneSelf]byte) {
+	for c := range t {
+		t[c] = byte(c)
+	}
+	for c := 'A'; c <= 'Z'; c++ {
+		t[c] = byte(c) + 'a' - 'A'
+	}
+	for _, c := range " \t.*-^()[]{}" {
+		t[c] = skipByte
+	}
+	return t
+}()
+
 // foldKey writes into buf the form of unit text s that spellings are
-// compared in, and returns its length; ok is false if s cannot be a unit.
+// compared in, and returns its length and its first eight bytes as
+// keyWords gives them; ok is false if s cannot be a unit.
 // Folding drops spaces, product signs (· ⋅ ∙ * . ×), hyphens and minus
 // signs, brackets, '^' and degree signs; turns superscript digits into
 // digits and µ/μ into u; lower-cases letters; drops the words "deg",
 // "degree", "degrees"; and reads "lbm" as "lb", "hr" as "h", "sec" as "s".
 // So "kJ/(kg·K)", "kJ/kg-K", "KJ/KG K" and "kJ/kg.K" all fold to "kj/kgk".
-func foldKey(buf *[maxKey]byte, s string) (n int, ok bool) {
-	b := buf[:0]
-	for _, r := range s {
-		var c byte
-		switch {
-		case r < utf8.RuneSelf:
-			switch {
-			case r >= 'A' && r <= 'Z':
-				c = byte(r) + 'a' - 'A'
-			case r == ' ' || r == '\t' || r == '.' || r == '*' || r == '-' || r == '^' ||
-				r == '(' || r == ')' || r == '[' || r == ']' || r == '{' || r == '}':
+func foldKey(buf *[maxKey]byte, s string) (n int, lo uint64, ok bool) {
+	var seen uint64 // bit c&63 set for each folded byte c
+	for i := 0; i < len(s); {
+		c := s[i]
+		if c < utf8.RuneSelf {
+			i++
+			if c = asciiFold[c]; c == skipByte {
 				continue
-			default:
-				c = byte(r)
 			}
-		default:
+		} else {
+			r, size := utf8.DecodeRuneInString(s[i:])
+			i += size
 			switch r {
 			case '\u00a0', '\u2009', '\u202f', '\u2002', '\u2003', '\u2007', // spaces
 				'·', '⋅', '∙', '•', '×', // product signs
@@ -350,22 +467,41 @@ func foldKey(buf *[maxKey]byte, s string) (n int, ok bool) {
 			case '∕': // division slash
 				c = '/'
 			default:
-				return 0, false
+				return 0, 0, false
 			}
 		}
-		if len(b) == maxKey {
-			return 0, false
+		if n == maxKey {
+			return 0, 0, false
 		}
-		b = append(b, c)
+		lo |= uint64(c) << (8 * uint(n)) // 0 from the ninth byte on
+		seen |= 1 << (c & 63)
+		buf[n] = c
+		n++
 	}
+	// The words below can only be there if all the letters of one of
+	// "deg", "lbm", "hr" and "sec" are; most units lack them all.
+	if seen&wordsDeg != wordsDeg && seen&wordsLbm != wordsLbm &&
+		seen&wordsHr != wordsHr && seen&wordsSec != wordsSec {
+		return n, lo, true
+	}
+	b := buf[:n]
 	b = cutWord(b, "degrees", "")
 	b = cutWord(b, "degree", "")
 	b = cutWord(b, "deg", "")
 	b = cutWord(b, "lbm", "lb")
 	b = cutWord(b, "hr", "h")
 	b = cutWord(b, "sec", "s")
-	return len(b), true
+	lo, _ = keyWords(buf, len(b))
+	return len(b), lo, true
 }
+
+// Sets of letters, as foldKey's seen holds them, of the words it rewrites.
+const (
+	wordsDeg = 1<<('d'&63) | 1<<('e'&63) | 1<<('g'&63)
+	wordsLbm = 1<<('l'&63) | 1<<('b'&63) | 1<<('m'&63)
+	wordsHr  = 1<<('h'&63) | 1<<('r'&63)
+	wordsSec = 1<<('s'&63) | 1<<('e'&63) | 1<<('c'&63)
+)
 
 // cutWord replaces in place every old in b by new, which is not longer.
 func cutWord(b []byte, old, new string) []byte {
@@ -381,27 +517,32 @@ func cutWord(b []byte, old, new string) []byte {
 	return b
 }
 
-// find returns the unit of d that text names. trap is set when the text
-// folds to a unit of d but its exact case names another prefix.
-func find(text string, d Dim) (u Unit, trap string, ok bool) {
+// find returns the index in registry[d].units of the unit of d that text
+// names. trap is set when the text folds to a unit of d but its exact case
+// names another prefix.
+func find(text string, d Dim) (i int, trap string, ok bool) {
 	var buf [maxKey]byte
-	n, ok := foldKey(&buf, text)
+	n, lo, ok := foldKey(&buf, text)
 	if !ok || (n == 0 && text != "" && text != "-") {
 		// Text of separators only ("()", ".") names nothing; "-" is
 		// the dash tables print for a pure number.
-		return Unit{}, "", false
+		return 0, "", false
 	}
-	r := &registry[d]
-	i, ok := r.byKey[string(buf[:n])]
+	i, ok = registry[d].keys.get(&buf, n, lo)
 	if !ok {
-		return Unit{}, "", false
+		return 0, "", false
 	}
-	for _, t := range caseTraps[d] {
-		if strings.HasPrefix(text, t.prefix) {
-			return Unit{}, t.detail, false
+	if text == "" {
+		return i, "", true
+	}
+	if c := text[0]; trapStart[d][c>>6]&(1<<(c&63)) != 0 {
+		for _, t := range caseTraps[d] {
+			if strings.HasPrefix(text, t.prefix) {
+				return 0, t.detail, false
+			}
 		}
 	}
-	return r.units[i], "", true
+	return i, "", true
 }
 
 // Lookup returns the unit of quantity d named by name, in any spelling the
@@ -413,9 +554,9 @@ func Lookup(name string, d Dim) (Unit, error) {
 		return Unit{}, &InputError{Text: name, Dim: d, Err: ErrUnknownUnit, Detail: "no quantity given to look the unit up in"}
 	}
 	text := strings.TrimSpace(name)
-	u, trap, ok := find(text, d)
+	i, trap, ok := find(text, d)
 	if ok {
-		return u, nil
+		return registry[d].units[i], nil
 	}
 	return Unit{}, unitError("", name, text, trap, d)
 }
@@ -467,9 +608,9 @@ func unitError(name, text, unitText, trap string, d Dim) *InputError {
 			if o == d {
 				continue
 			}
-			if u, _, ok := find(unitText, o); ok && u.Name != "" {
+			if i, _, ok := find(unitText, o); ok && registry[o].units[i].Name != "" {
 				others = append(others, o.String())
-				canon = u.Name
+				canon = registry[o].units[i].Name
 			}
 		}
 		if len(others) > 0 {

@@ -1,0 +1,153 @@
+package units
+
+import (
+	"math"
+	"strings"
+)
+
+// parseFast reads the common shapes of a value quickly: optional spaces, an
+// ASCII number ("6", "-0.5", "1.2e3") that float64 holds after one rounding,
+// and then either nothing or optional spaces and a unit that starts with a
+// letter, '%', '°', 'µ' or a letterlike symbol such as '℃'. It returns ok only
+// for text that parse reads without error, and then the same value and
+// unit; anything else, every error included, it leaves to parseFull, which
+// then reads the text from the start.
+func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
+	if !d.valid() || (opt.Patm != 0 && !(opt.Patm >= MinPatm && opt.Patm <= MaxPatm)) {
+		return 0, nil, false
+	}
+	i := 0
+	for i < len(text) && (text[i] == ' ' || text[i] == '\t') {
+		i++
+	}
+	neg := false
+	if i < len(text) && (text[i] == '-' || text[i] == '+') {
+		neg = text[i] == '-'
+		i++
+	}
+	// Digits, while they fit an exact float64 after one scaling by a
+	// power of ten. Both are exact, so the one rounding gives what
+	// strconv.ParseFloat gives.
+	var mant uint64
+	exp10, digits := 0, 0
+	for ; i < len(text) && isDigit(text[i]); i++ {
+		if mant >= 1e15 {
+			return 0, nil, false
+		}
+		mant = mant*10 + uint64(text[i]-'0')
+		digits++
+	}
+	if i < len(text) && text[i] == '.' {
+		for i++; i < len(text) && isDigit(text[i]); i++ {
+			if mant >= 1e15 {
+				return 0, nil, false
+			}
+			mant = mant*10 + uint64(text[i]-'0')
+			exp10--
+			digits++
+		}
+	}
+	if digits == 0 {
+		return 0, nil, false
+	}
+	if i < len(text) && (text[i] == 'e' || text[i] == 'E') {
+		i++
+		expNeg := false
+		if i < len(text) && (text[i] == '-' || text[i] == '+') {
+			expNeg = text[i] == '-'
+			i++
+		}
+		if i == len(text) || !isDigit(text[i]) {
+			return 0, nil, false
+		}
+		e := 0
+		for ; i < len(text) && isDigit(text[i]); i++ {
+			if e >= 1000 {
+				return 0, nil, false
+			}
+			e = e*10 + int(text[i]-'0')
+		}
+		if expNeg {
+			e = -e
+		}
+		exp10 += e
+	}
+	if mant >= 1<<53 || exp10 < -22 || exp10 > 22 {
+		return 0, nil, false
+	}
+	v := float64(mant)
+	if neg {
+		v = -v
+	}
+	if exp10 > 0 {
+		v *= pow10[exp10]
+	} else if exp10 < 0 {
+		v /= pow10[-exp10]
+	}
+
+	for i < len(text) && (text[i] == ' ' || text[i] == '\t') {
+		i++
+	}
+	reg := &registry[d]
+	var sep *Unit // the unit given separately
+	if opt.Unit != "" {
+		k, _, ok := find(strings.TrimSpace(opt.Unit), d)
+		if !ok {
+			return 0, nil, false
+		}
+		sep = &reg.units[k]
+	}
+	var u *Unit
+	switch {
+	case i < len(text):
+		// The unit must start with a character that neither continues
+		// the number nor is a space, so the rules on digit groups and
+		// spaces inside numbers have nothing to refuse.
+		switch c := text[i]; {
+		case 'a' <= c|0x20 && c|0x20 <= 'z', c == '%':
+		case strings.HasPrefix(text[i:], "°"), strings.HasPrefix(text[i:], "µ"), strings.HasPrefix(text[i:], "μ"):
+		case c == 0xe2 && i+1 < len(text) && text[i+1] == 0x84: // U+2100..U+213F: ℃ ℉ K (kelvin sign)
+		default:
+			return 0, nil, false
+		}
+		// Spaces after the unit, which parseFull trims, fold away or
+		// leave a byte that no spelling holds, so they change no match.
+		k, _, ok := find(text[i:], d)
+		if !ok {
+			return 0, nil, false
+		}
+		u = &reg.units[k]
+		if sep != nil && sep.Gauge != u.Gauge {
+			return 0, nil, false
+		}
+	case sep != nil:
+		u = sep
+	default:
+		u = &reg.units[opt.Set.index(d)]
+	}
+
+	// Each test below fails for NaN and the infinities too.
+	b := u.ToBase(v, opt.Patm)
+	switch d {
+	case Pressure, Temperature:
+		if !(b > 0 && b <= math.MaxFloat64) {
+			return 0, nil, false
+		}
+	case Quality:
+		if !(b >= 0 && b <= 1) {
+			return 0, nil, false
+		}
+	default:
+		if !(math.Abs(b) <= math.MaxFloat64) {
+			return 0, nil, false
+		}
+	}
+	if b == 0 {
+		b = 0 // no negative zero
+	}
+	return b, u, true
+}
+
+// pow10 holds the powers of ten that float64 holds exactly.
+var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
+	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}

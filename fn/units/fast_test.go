@@ -1,0 +1,78 @@
+package units
+
+import (
+	"math"
+	"testing"
+)
+
+// FuzzParseFast checks that the quick path of Parse reads every text it
+// takes exactly as the full rules do: same value to the bit, same unit, and
+// only text the full rules accept.
+func FuzzParseFast(f *testing.F) {
+	for _, s := range []string{
+		"6 barg", "330 °C", "330°C", "0.6 MPa", "0.6 mPa", "0.6 Mbar", "600kPa", "87 psig", "2800 kJ/kg",
+		"85 %", "0.85", "85", "-40 °F", "+6 bar", "1.2e3 kPa", "5e-4 1/K", "2.1e-4 1/K", "1 µPa·s", "1 μPa s",
+		"330 ℃", "300 \u212a", "6 bar ", "6 bar\n", "6 bar\u00a0", "6\u00a0bar", "6 bar\u3000", " 6 bar", "\t6\tbar",
+		"6 kg/cm2 g", "1.5 Btu/(lb·°F)", "1 lbm/ft3", "3 ft2/hr", "330 deg C", "330 degrees F", "1 cSt",
+		"1.013.250", "1'013", "1_000", "1,5 bar", "6 bar,", "6 e", "5e", "5e+", "1e22", "1e23", "1e-22", "1e-23",
+		"9007199254740993", "123456789012345678", "0.000000000000000000001", "-0", "-0 °C", "0 %", "100 %",
+		"100.0000000001 %", "1e308 1/Pa", "1.7e308 kPa", "6 -", "0.5 -", "6 ()", "6 MPa(g)", "6 1/MPa", "6 MW/(m·K)",
+		"6 mW/(m·K)", "6 mPa·s", "6 MPa·s", "6 Mm²/s", "6 mm²/s", "1 1/mPa", "1 mPa⁻¹",
+	} {
+		f.Add(s)
+	}
+	us, _ := SetByName("us")
+	optsets := []Options{
+		{Name: "in"},
+		{Name: "in", Set: us},
+		{Name: "in", Patm: 0.0899},
+		{Name: "in", Patm: 5},
+		{Name: "in", Unit: "barg"},
+	}
+	f.Fuzz(func(t *testing.T, text string) {
+		for d := Dim(0); d <= Dimensionless+1; d++ {
+			for i := range optsets {
+				opt := &optsets[i]
+				v, u, ok := parseFast(text, d, opt)
+				if !ok {
+					continue
+				}
+				w, uw, err := parseFull(text, d, opt)
+				if err != nil {
+					t.Fatalf("parseFast(%q, %s, %+v) = %g %s, but the full rules refuse it: %v", text, d, *opt, v, u.Name, err)
+				}
+				if math.Float64bits(v) != math.Float64bits(w) || u != uw {
+					t.Fatalf("parseFast(%q, %s, %+v) = %g %q, the full rules %g %q", text, d, *opt, v, u.Name, w, uw.Name)
+				}
+			}
+		}
+	})
+}
+
+// BenchmarkParseForms measures Parse on other common forms, quick and
+// not, beside BenchmarkParse.
+func BenchmarkParseForms(b *testing.B) {
+	for _, tc := range []struct {
+		text string
+		d    Dim
+		opt  Options
+	}{
+		{"600 kPa", Pressure, Options{}},
+		{"0.6 MPa", Pressure, Options{}},
+		{"2800 kJ/kg", SpecificEnergy, Options{}},
+		{"6.5 kJ/(kg·K)", SpecificEntropy, Options{}},
+		{"85 %", Quality, Options{}},
+		{"626", Temperature, Options{Unit: "°F"}},
+		{"6\u00a0bar", Pressure, Options{}},           // full rules: a no-break space
+		{"1.2e-3 1/K", InverseTemperature, Options{}}, // full rules: unit starts with a digit
+	} {
+		b.Run(tc.text, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				if _, err := Parse(tc.text, tc.d, tc.opt); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
