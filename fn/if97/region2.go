@@ -73,17 +73,12 @@ var r2ResidualCoef = [...]term{
 // ideal-gas part of the metastable-vapour equation, R7-97(2012) Eq. 19
 // (section 6.2): the rows of Table 10 with n⁰₁ and n⁰₂ replaced by the values
 // given there.
-var r2MetastableIdealCoef = [...]term{
-	{0, 0, -0.96937268393049e1},
-	{0, 1, 0.10087275970006e2},
-	{0, -5, -0.56087911283020e-2},
-	{0, -4, 0.71452738081455e-1},
-	{0, -3, -0.40710498223928},
-	{0, -2, 0.14240819171444e1},
-	{0, -1, -0.43839511319450e1},
-	{0, 2, -0.28408632460772},
-	{0, 3, 0.21268463753307e-1},
-}
+var r2MetastableIdealCoef = func() [len(r2IdealCoef)]term {
+	t := r2IdealCoef
+	t[0].n = -0.96937268393049e1
+	t[1].n = 0.10087275970006e2
+	return t
+}()
 
 // r2MetastableResidualCoef holds the coefficients and exponents of the
 // residual part of the metastable-vapour equation, R7-97(2012) Table 16, rows
