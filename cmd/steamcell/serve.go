@@ -1,0 +1,250 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"log/slog"
+	"net"
+	"net/http"
+	"os"
+	"os/signal"
+	"strconv"
+	"strings"
+	"sync"
+	"syscall"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"steamcell/fn/units"
+	"steamcell/server"
+	"steamcell/workbook"
+)
+
+func init() { verbs = append(verbs, (*App).serveCommand) }
+
+func (a *App) serveCommand() *cobra.Command {
+	var (
+		addr, token, unitSet, logFormat string
+		corsOrigins                     []string
+		maxRows                         int
+		maxBody                         = byteSize(server.DefaultMaxBodyBytes)
+		maxWorkbook                     = byteSize(server.DefaultMaxWorkbookBytes)
+		maxHeader                       = byteSize(server.DefaultMaxHeaderBytes)
+		workbookMemory                  = byteSize(512 << 20)
+		readTimeout, writeTimeout       time.Duration
+		idleTimeout, shutdownTimeout    time.Duration
+	)
+	cmd := &cobra.Command{
+		Use:   "serve",
+		Short: "Serve water and steam properties over HTTP to spreadsheets, scripts and plant tools",
+		Long: `serve starts the function server. A spreadsheet formula, a script or a plant
+tool asks it for one value, one state, the saturation line or a batch of
+points:
+
+  GET  /state?p=6barg&t=330C              every property, JSON (format=csv)
+  GET  /state/h?p=600kPa&t=330C&units=us  one number as plain text, for a cell
+  GET  /saturation?p=10bar                saturation line at p (or t=)
+  POST /batch                             CSV or JSON rows, answered in order
+  POST /workbook?name=tests.xlsx          the body filled as "steamcell fill" does
+  GET  /openapi.json  /healthz  /metrics
+
+It listens on 127.0.0.1 (this computer only) unless --addr says otherwise.
+With --token (or the environment variable STEAMCELL_TOKEN, which keeps the
+token out of the process list) every route but /healthz wants
+"Authorization: Bearer TOKEN" or the query parameter key=TOKEN; the
+parameter exists for spreadsheet formulas, which cannot send headers, and
+puts the token into every formula that uses it.
+
+SIGINT or SIGTERM stops the server after the requests in progress finish
+(at most --shutdown-timeout).`,
+		Example: `  steamcell serve
+  STEAMCELL_TOKEN=s3cret steamcell serve --addr 0.0.0.0:8097
+  steamcell serve --units us --cors-origin https://plant.example`,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			if token == "" {
+				token = os.Getenv("STEAMCELL_TOKEN")
+			}
+			set, err := units.SetByName(unitSet)
+			if err != nil {
+				return usageError{err}
+			}
+			var handler slog.Handler
+			switch logFormat {
+			case "text":
+				handler = slog.NewTextHandler(a.err, nil)
+			case "json":
+				handler = slog.NewJSONHandler(a.err, nil)
+			default:
+				return usageError{fmt.Errorf("--log-format %q: use text or json", logFormat)}
+			}
+			log := slog.New(handler)
+			srv := server.New(server.Config{
+				Units:            set,
+				Token:            token,
+				CORSOrigins:      corsOrigins,
+				MaxRows:          maxRows,
+				MaxBodyBytes:     int64(maxBody),
+				MaxWorkbookBytes: int64(maxWorkbook),
+				MaxHeaderBytes:   int(maxHeader),
+				ReadTimeout:      readTimeout,
+				WriteTimeout:     writeTimeout,
+				IdleTimeout:      idleTimeout,
+				Logger:           log,
+				Version:          Version,
+				Workbook:         workbookFiller{maxCells: int64(workbookMemory) / workbook.CellMemory},
+			})
+			return a.serve(cmd.OutOrStdout(), srv.HTTPServer(addr), log, token != "", shutdownTimeout)
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&addr, "addr", server.DefaultAddr, "address to listen on; 127.0.0.1 keeps the server to this computer")
+	f.StringVar(&token, "token", "", "token every route but /healthz wants (default: $STEAMCELL_TOKEN; none: no token)")
+	f.StringSliceVar(&corsOrigins, "cors-origin", nil, "origin allowed to call from a browser page, e.g. https://plant.example, or * (repeatable; default: none)")
+	f.StringVar(&unitSet, "units", "si", "unit set of requests without units=: "+strings.Join(units.SetNames(), ", "))
+	f.IntVar(&maxRows, "max-rows", server.DefaultMaxRows, "most rows in one /batch request")
+	f.Var(&maxBody, "max-body", "largest /batch body (e.g. 256MiB)")
+	f.Var(&maxWorkbook, "max-workbook", "largest /workbook upload")
+	f.Var(&maxHeader, "max-header", "largest request line and headers")
+	f.Var(&workbookMemory, "workbook-memory", "memory one /workbook fill may take; bounds the cells of a sheet")
+	f.DurationVar(&readTimeout, "read-timeout", server.DefaultReadTimeout, "longest wait for a request (a batch body: between chunks)")
+	f.DurationVar(&writeTimeout, "write-timeout", server.DefaultWriteTimeout, "longest wait to write an answer (a batch answer: between chunks)")
+	f.DurationVar(&idleTimeout, "idle-timeout", server.DefaultIdleTimeout, "how long an idle keep-alive connection stays open")
+	f.DurationVar(&shutdownTimeout, "shutdown-timeout", 30*time.Second, "longest wait for requests in progress at shutdown")
+	f.StringVar(&logFormat, "log-format", "text", "request log on standard error: text or json")
+	return cmd
+}
+
+// serve runs hs until SIGINT, SIGTERM or App.Close, then shuts it down,
+// letting requests in progress finish within shutdownTimeout.
+func (a *App) serve(out io.Writer, hs *http.Server, log *slog.Logger, hasToken bool, shutdownTimeout time.Duration) error {
+	ln, err := net.Listen("tcp", hs.Addr)
+	if err != nil {
+		return fmt.Errorf("listen on %s: %w", hs.Addr, err)
+	}
+	ctx, stop := signal.NotifyContext(context.Background(), os.Interrupt, syscall.SIGTERM)
+	defer stop()
+	closed := &stopper{done: make(chan struct{})}
+	a.closers = append(a.closers, closed)
+
+	if host, _, err := net.SplitHostPort(ln.Addr().String()); err == nil && !hasToken {
+		if ip := net.ParseIP(host); ip == nil || !ip.IsLoopback() {
+			log.Warn("listening beyond this computer without a token: anyone who can reach the address can use the server; set --token or STEAMCELL_TOKEN", slog.String("addr", ln.Addr().String()))
+		}
+	}
+	fmt.Fprintf(out, "steamcell serve: listening on http://%s (IAPWS-IF97; Ctrl-C to stop)\n", ln.Addr())
+
+	errc := make(chan error, 1)
+	go func() { errc <- hs.Serve(ln) }()
+	select {
+	case err := <-errc:
+		return fmt.Errorf("serve: %w", err)
+	case <-ctx.Done():
+	case <-closed.done:
+	}
+	log.Info("shutting down: finishing requests in progress", slog.Duration("timeout", shutdownTimeout))
+	sctx, cancel := context.WithTimeout(context.Background(), shutdownTimeout)
+	defer cancel()
+	if err := hs.Shutdown(sctx); err != nil {
+		_ = hs.Close()
+		return fmt.Errorf("shutdown: requests still in progress after %s: %w", shutdownTimeout, err)
+	}
+	if err := <-errc; !errors.Is(err, http.ErrServerClosed) {
+		return fmt.Errorf("serve: %w", err)
+	}
+	log.Info("stopped")
+	return nil
+}
+
+// workbookFiller fills uploads of POST /workbook with package workbook.
+type workbookFiller struct {
+	maxCells int64 // most cells of a filled sheet, from --workbook-memory
+}
+
+func (w workbookFiller) Fill(ctx context.Context, in io.Reader, _ int64, name string, opts server.WorkbookOptions, out io.Writer) (any, error) {
+	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, MaxCells: w.maxCells}, out)
+	var we *workbook.Error
+	if errors.As(err, &we) {
+		return nil, server.InputProblem(err)
+	}
+	if err != nil {
+		return nil, err
+	}
+	return briefSummary(sum), nil
+}
+
+// briefSummary is the summary of a fill as the Steamcell-Summary header
+// carries it: counts and notes, without the column lists (the filled
+// workbook's summary sheet has those).
+func briefSummary(sum workbook.Summary) map[string]any {
+	sheets := make([]map[string]any, 0, len(sum.Sheets))
+	for _, sh := range sum.Sheets {
+		m := map[string]any{"name": sh.Name, "filled": sh.Filled, "rows": sh.Rows, "ok": sh.OK,
+			"flagged": sh.Flagged, "failed": sh.Failed}
+		if sh.Note != "" {
+			m["note"] = sh.Note
+		}
+		sheets = append(sheets, m)
+	}
+	return map[string]any{"rows": sum.Rows, "ok": sum.OK, "flagged": sum.Flagged, "failed": sum.Failed,
+		"blank": sum.Blank, "summary_sheet": sum.SummarySheet, "sheets": sheets, "notes": sum.Notes}
+}
+
+// stopper is registered with App.Close to stop a running server.
+type stopper struct {
+	once sync.Once
+	done chan struct{}
+}
+
+func (s *stopper) Close() error {
+	s.once.Do(func() { close(s.done) })
+	return nil
+}
+
+// byteSize is a flag value of bytes: a count with an optional unit, 16KiB,
+// 256MiB, 1GiB, 10MB.
+type byteSize int64
+
+var byteUnits = []struct {
+	suffix string
+	mul    int64
+}{
+	{"kib", 1 << 10}, {"mib", 1 << 20}, {"gib", 1 << 30},
+	{"kb", 1000}, {"mb", 1000 * 1000}, {"gb", 1000 * 1000 * 1000},
+	{"k", 1 << 10}, {"m", 1 << 20}, {"g", 1 << 30},
+	{"b", 1},
+}
+
+func (b *byteSize) Set(s string) error {
+	t := strings.ToLower(strings.TrimSpace(s))
+	mul := int64(1)
+	for _, u := range byteUnits {
+		if strings.HasSuffix(t, u.suffix) {
+			t, mul = strings.TrimSpace(strings.TrimSuffix(t, u.suffix)), u.mul
+			break
+		}
+	}
+	n, err := strconv.ParseInt(t, 10, 64)
+	if err != nil || n <= 0 || n > (1<<62)/mul {
+		return fmt.Errorf("%q is not a size; write e.g. 16KiB, 256MiB or 1GiB", s)
+	}
+	*b = byteSize(n * mul)
+	return nil
+}
+
+func (b *byteSize) String() string {
+	n := int64(*b)
+	for _, u := range []struct {
+		name string
+		mul  int64
+	}{{"GiB", 1 << 30}, {"MiB", 1 << 20}, {"KiB", 1 << 10}} {
+		if n >= u.mul && n%u.mul == 0 {
+			return strconv.FormatInt(n/u.mul, 10) + u.name
+		}
+	}
+	return strconv.FormatInt(n, 10)
+}
+
+func (b *byteSize) Type() string { return "size" }

@@ -1,0 +1,695 @@
+package server
+
+import (
+	"bufio"
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"errors"
+	"io"
+	"log/slog"
+	"net/http"
+	"strconv"
+	"strings"
+	"sync"
+	"time"
+	"unicode/utf8"
+
+	"github.com/gin-gonic/gin"
+
+	"steamcell/fn"
+	"steamcell/fn/point"
+)
+
+// Limits of the batch stream. Between two flushes the server holds at most
+// chunkRows rows or about chunkBytes of input (whichever comes first) with
+// their answers, plus one row of at most maxRowBytes being read: that, not
+// the number of rows, bounds the memory of a batch.
+const (
+	chunkRows   = 256
+	chunkBytes  = 1 << 20
+	maxRowBytes = 1 << 20
+)
+
+// postBatch answers many points: a CSV body (a header naming two inputs,
+// units in brackets, other columns passed through) or a JSON array of
+// objects ({"p":"6 barg","t":"330C","tag":"FW-1"}). The answer has one row
+// per input row, in order, each with its status: "ok" or the reason. It is
+// CSV for a CSV body and JSON for a JSON body unless format= says
+// otherwise. The body is received first, then rows are read, solved (on up
+// to two workers) and written in order, flushed every chunk.
+//
+// POST /batch
+func (s *Server) postBatch(c *gin.Context) {
+	req, err := s.readRequest(c.Request.URL.RawQuery, takesGet|takesFormat)
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	kind, err := bodyKind(c.ContentType())
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	sp, err := spoolBody(c.Writer, c.Request, s.cfg.MaxBodyBytes, s.cfg.ReadTimeout, s.cfg.WriteTimeout)
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	defer sp.Close()
+	lim := &rowLimit{r: sp.reader(), max: maxRowBytes}
+	br := bufio.NewReaderSize(lim, 64<<10)
+	if kind == "" {
+		kind = sniffKind(br)
+	}
+	out := &batchOut{opt: req.opt, syms: req.syms, format: req.format}
+	if out.syms == nil {
+		out.syms = point.DefaultSymbols()
+	}
+	var src rowSource
+	if kind == "json" {
+		src, err = newJSONSource(br, lim)
+	} else {
+		var cs *csvSource
+		cs, err = newCSVSource(br, lim)
+		if err == nil {
+			src, out.header, out.delim = cs, cs.header, cs.r.Comma
+		}
+	}
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	if out.format == "" {
+		out.format = kind
+	}
+	out.prepare()
+	s.streamBatch(c, src, out)
+}
+
+// bodyKind says from the Content-Type whether a body is CSV or JSON; ""
+// means the type does not say (form, octet-stream, plain text, none) and
+// the body is sniffed.
+func bodyKind(contentType string) (string, error) {
+	switch strings.ToLower(contentType) {
+	case "text/csv", "application/csv", "text/tab-separated-values":
+		return "csv", nil
+	case "application/json":
+		return "json", nil
+	case "", "text/plain", "application/octet-stream", "application/x-www-form-urlencoded":
+		return "", nil
+	}
+	return "", errorf(ErrMediaType, "Content-Type", "a batch body is CSV (text/csv) or a JSON array (application/json), not %s", clean(contentType, 60))
+}
+
+// sniffKind reads a body as JSON when its first character (after a byte
+// order mark and spaces) opens an array or object, else as CSV.
+func sniffKind(br *bufio.Reader) string {
+	head, _ := br.Peek(512)
+	head = bytes.TrimPrefix(head, []byte("\ufeff"))
+	head = bytes.TrimLeft(head, " \t\r\n")
+	if len(head) > 0 && (head[0] == '[' || head[0] == '{') {
+		return "json"
+	}
+	return "csv"
+}
+
+// errRowTooLong stops a batch whose row would not fit the memory bound.
+var errRowTooLong = errorf(ErrBadBody, "", "a row is longer than %d bytes; is every row on its own line?", maxRowBytes)
+
+// rowLimit stops reading when one row has taken more than max bytes of
+// the body since the last reset (the count includes read-ahead, so the
+// limit is approximate to one buffer).
+type rowLimit struct {
+	r      io.Reader
+	n, max int64
+}
+
+func (l *rowLimit) Read(p []byte) (int, error) {
+	if l.n >= l.max {
+		return 0, errRowTooLong
+	}
+	if int64(len(p)) > l.max-l.n {
+		p = p[:l.max-l.n]
+	}
+	n, err := l.r.Read(p)
+	l.n += int64(n)
+	return n, err
+}
+
+func (l *rowLimit) reset() { l.n = 0 }
+
+// batchRow is one row of a batch: as read, then as answered.
+type batchRow struct {
+	n     int           // 1-based row number
+	given []point.Given // the two inputs, or what the row holds
+	cells []string      // CSV: the cells as read
+	raw   []byte        // JSON: the element as sent, compacted
+	err   error         // why the row cannot be solved as read
+	ok    bool          // answered with "ok"
+	out   []byte        // the answer row, ready to write
+	tmp   []string      // scratch cells
+}
+
+func (r *batchRow) size() int {
+	n := len(r.raw)
+	for _, c := range r.cells {
+		n += len(c)
+	}
+	return n
+}
+
+// rowSource reads rows of a batch body. next fills r; it returns io.EOF
+// after the last row, and any other error when the body cannot be read on
+// (the answer then ends with that reason). A problem of one row only is
+// put in r.err.
+type rowSource interface {
+	next(r *batchRow) error
+}
+
+// csvSource reads a CSV body.
+type csvSource struct {
+	r      *csv.Reader
+	lim    *rowLimit
+	header []string
+	inputs []csvInput
+}
+
+// csvInput is a column read as an input.
+type csvInput struct {
+	col  int
+	sym  string
+	unit string
+}
+
+func newCSVSource(br *bufio.Reader, lim *rowLimit) (*csvSource, error) {
+	r := csv.NewReader(br)
+	r.Comma = sniffDelimiter(br)
+	r.FieldsPerRecord = -1
+	r.ReuseRecord = true
+	rec, err := r.Read()
+	if err == io.EOF {
+		return nil, errorf(ErrBadBody, "", "the body is empty; send a header line naming two inputs (e.g. p [barg],t [°C]) and one line per point")
+	}
+	if err != nil {
+		return nil, errorf(ErrBadBody, "", "the header line is not CSV: %v", err)
+	}
+	cs := &csvSource{r: r, lim: lim, header: append([]string(nil), rec...)}
+	cs.header[0] = strings.TrimPrefix(cs.header[0], "\ufeff")
+	var names []string
+	for i, h := range cs.header {
+		if !utf8.ValidString(h) {
+			return nil, errorf(ErrBadBody, "", "header cell %d is not UTF-8 text; save the file as CSV UTF-8", i+1)
+		}
+		m, ok := point.ParseHeader(h)
+		if !ok {
+			if why := point.ExplainHeader(h); why != "" {
+				return nil, errorf(ErrBadBody, clean(h, 40), "column %d, %s: %s", i+1, clean(h, 40), why)
+			}
+			continue
+		}
+		for _, in := range cs.inputs {
+			if in.sym == m.Symbol {
+				return nil, errorf(ErrBadBody, clean(h, 40), "columns %s and %s both hold %s; a batch takes one point per row: keep one, send each pair in its own batch, or send the file to POST /workbook",
+					clean(cs.header[in.col], 40), clean(h, 40), m.Q)
+			}
+		}
+		cs.inputs = append(cs.inputs, csvInput{col: i, sym: m.Symbol, unit: m.Unit})
+		names = append(names, clean(h, 40))
+	}
+	if len(cs.inputs) != 2 {
+		msg := "the header names no input"
+		if len(names) > 0 {
+			msg = "the header names " + strconv.Itoa(len(names)) + " inputs (" + strings.Join(names, ", ") + ")"
+		}
+		return nil, &point.Error{Kind: point.ErrInputCount,
+			Msg: msg + "; name exactly two, e.g. p [barg],t [°C]; other columns (tags, notes) are passed through. For two points per row send each pair in its own batch, or the file to POST /workbook"}
+	}
+	return cs, nil
+}
+
+// sniffDelimiter picks the delimiter of the header line: a comma, or a
+// semicolon or tab when the line has more of those (spreadsheets set to a
+// decimal comma save CSV with semicolons).
+func sniffDelimiter(br *bufio.Reader) rune {
+	head, _ := br.Peek(4096)
+	if i := bytes.IndexByte(head, '\n'); i >= 0 {
+		head = head[:i]
+	}
+	comma, semi, tab := bytes.Count(head, []byte{','}), bytes.Count(head, []byte{';'}), bytes.Count(head, []byte{'\t'})
+	switch {
+	case semi > comma && semi >= tab:
+		return ';'
+	case tab > comma && tab > semi:
+		return '\t'
+	}
+	return ','
+}
+
+func (cs *csvSource) next(row *batchRow) error {
+	cs.lim.reset()
+	rec, err := cs.r.Read()
+	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
+	var pe *csv.ParseError
+	switch {
+	case err == io.EOF:
+		return io.EOF
+	case errors.As(err, &pe):
+		row.err = errorf(ErrBadBody, "", "line %d is not CSV: %v", pe.Line, pe.Err)
+		return nil
+	case err != nil:
+		return err
+	}
+	row.cells = append(row.cells, rec...)
+	if len(rec) > len(cs.header) {
+		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(rec), len(cs.header))
+		return nil
+	}
+	for _, in := range cs.inputs {
+		text := ""
+		if in.col < len(rec) {
+			text = rec[in.col]
+		}
+		row.given = append(row.given, point.Given{Name: in.sym, Text: text, Unit: in.unit})
+	}
+	return nil
+}
+
+// jsonSource reads a JSON array of objects.
+type jsonSource struct {
+	dec *json.Decoder
+	lim *rowLimit
+}
+
+func newJSONSource(br *bufio.Reader, lim *rowLimit) (*jsonSource, error) {
+	if b, _ := br.Peek(3); bytes.Equal(b, []byte("\ufeff")) {
+		_, _ = br.Discard(3)
+	}
+	dec := json.NewDecoder(br)
+	tok, err := dec.Token()
+	if err == io.EOF {
+		return nil, errorf(ErrBadBody, "", `the body is empty; send a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
+	}
+	if d, ok := tok.(json.Delim); err != nil || !ok || d != '[' {
+		return nil, errorf(ErrBadBody, "", `the body must be a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
+	}
+	return &jsonSource{dec: dec, lim: lim}, nil
+}
+
+func (js *jsonSource) next(row *batchRow) error {
+	js.lim.reset()
+	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
+	if !js.dec.More() {
+		if _, err := js.dec.Token(); err != nil {
+			return jsonStop(err, row.n)
+		}
+		if _, err := js.dec.Token(); err != io.EOF {
+			return errorf(ErrBadBody, "", "there is more after the closing ] of the array; send one array")
+		}
+		return io.EOF
+	}
+	var raw json.RawMessage
+	if err := js.dec.Decode(&raw); err != nil {
+		return jsonStop(err, row.n)
+	}
+	var b bytes.Buffer
+	if err := json.Compact(&b, raw); err != nil {
+		return jsonStop(err, row.n)
+	}
+	row.raw = append(row.raw, b.Bytes()...)
+	row.err = readJSONRow(row.raw, row)
+	return nil
+}
+
+// jsonStop explains why a JSON body cannot be read on.
+func jsonStop(err error, n int) error {
+	var se *Error
+	if errors.As(err, &se) {
+		return err
+	}
+	if err == io.EOF || errors.Is(err, io.ErrUnexpectedEOF) {
+		return errorf(ErrBadBody, "", "the body ends inside the array, after row %d; close it with ]", n-1)
+	}
+	return errorf(ErrBadBody, "", "row %d is not valid JSON: %v", n, err)
+}
+
+// readJSONRow reads the inputs of one element, keeping the order of its
+// keys. Keys are read like CSV headers ("p", "T", "Drum pressure [barg]");
+// keys that name no input are passed through.
+func readJSONRow(raw []byte, row *batchRow) error {
+	d := json.NewDecoder(bytes.NewReader(raw))
+	d.UseNumber()
+	if tok, _ := d.Token(); tok != json.Delim('{') {
+		return errorf(ErrBadBody, "", `the row is not a JSON object; give one like {"p":"6 barg","t":"330C"}`)
+	}
+	for d.More() {
+		kt, err := d.Token()
+		if err != nil {
+			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
+		}
+		key, _ := kt.(string)
+		m, ok := point.ParseHeader(key)
+		if !ok {
+			if why := point.ExplainHeader(key); why != "" {
+				return errorf(ErrBadBody, clean(key, 40), "key %s: %s", clean(key, 40), why)
+			}
+			var skip json.RawMessage
+			if err := d.Decode(&skip); err != nil {
+				return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
+			}
+			continue
+		}
+		vt, err := d.Token()
+		if err != nil {
+			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
+		}
+		var text string
+		switch v := vt.(type) {
+		case string:
+			text = v
+		case json.Number:
+			text = v.String()
+		case nil:
+		default:
+			return errorf(ErrBadBody, clean(key, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(key, 40))
+		}
+		row.given = append(row.given, point.Given{Name: m.Symbol, Text: text, Unit: m.Unit})
+	}
+	return nil
+}
+
+// batchOut writes the answer of a batch.
+type batchOut struct {
+	format string // "csv" or "json"
+	opt    point.Options
+	syms   []string
+	header []string // the CSV body's header; nil for a JSON body
+	delim  rune     // CSV delimiter of the answer
+	keys   [][]byte // JSON keys of the header's columns, for "given"
+}
+
+func (o *batchOut) prepare() {
+	if o.delim == 0 {
+		o.delim = ','
+	}
+	seen := map[string]int{}
+	for _, h := range o.header {
+		k := h
+		if seen[h]++; seen[h] > 1 {
+			k = h + " (" + strconv.Itoa(seen[h]) + ")"
+		}
+		o.keys = append(o.keys, appendJSONString(nil, k))
+	}
+}
+
+// begin writes what comes before the first row.
+func (o *batchOut) begin(w io.Writer) error {
+	var b []byte
+	if o.format == "csv" {
+		cells := o.header
+		if cells == nil {
+			cells = []string{"given"}
+		}
+		cells = append(append([]string(nil), cells...), "status")
+		cells = answerHeader(cells, o.syms, o.opt.Set)
+		b = appendCSVRow(b, cells, o.delim)
+	} else {
+		b = append(b, `{"formulation":"`+point.Formulation+`","unit_set":`...)
+		b = appendJSONString(b, o.opt.Set.Name())
+		b = append(b, `,"caution":`...)
+		b = appendJSONString(b, Caution)
+		b = append(b, `,"rows":[`...)
+	}
+	_, err := w.Write(b)
+	return err
+}
+
+// end writes what comes after the last row; stop is why the batch stopped
+// early, or nil.
+func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
+	var b []byte
+	if o.format == "csv" {
+		if stop != nil {
+			cells := make([]string, max(len(o.header), 1))
+			cells = append(cells, "stopped: "+stop.Msg)
+			b = appendCSVRow(b, emptyAnswerCells(cells, o.syms), o.delim)
+		}
+	} else {
+		if total > 0 {
+			b = append(b, '\n')
+		}
+		b = append(b, `],"rows_total":`...)
+		b = strconv.AppendInt(b, int64(total), 10)
+		b = append(b, `,"rows_ok":`...)
+		b = strconv.AppendInt(b, int64(total-failed), 10)
+		b = append(b, `,"rows_failed":`...)
+		b = strconv.AppendInt(b, int64(failed), 10)
+		b = append(b, `,"complete":`...)
+		b = strconv.AppendBool(b, stop == nil)
+		if stop != nil {
+			b = append(b, `,"stopped":{"code":`...)
+			b = appendJSONString(b, stop.Code)
+			b = append(b, `,"message":`...)
+			b = appendJSONString(b, stop.Msg)
+			b = append(b, '}')
+		}
+		b = append(b, "}\n"...)
+	}
+	_, err := w.Write(b)
+	return err
+}
+
+// answer solves one row and writes its answer into r.out. It is safe to
+// call for different rows at once.
+func (s *Server) answer(o *batchOut, r *batchRow) {
+	r.out = r.out[:0]
+	var st fn.State
+	var in [2]fn.Input
+	err := r.err
+	if err == nil {
+		st, in, err = point.Solve(r.given, o.opt)
+	}
+	var ans point.Answer
+	if err == nil {
+		ans = point.Render(&st, o.syms, o.opt)
+	}
+	r.ok = err == nil
+	var p problem
+	if err != nil {
+		p = classify(err)
+		if p.Code == internalCode {
+			s.log.Error("internal error in batch row", slog.Int("row", r.n), slog.String("error", err.Error()))
+		}
+	}
+	if o.format == "csv" {
+		cells := r.tmp[:0]
+		if o.header != nil {
+			cells = append(cells, r.cells[:min(len(r.cells), len(o.header))]...)
+			for len(cells) < len(o.header) {
+				cells = append(cells, "")
+			}
+		} else {
+			cells = append(cells, string(r.raw))
+		}
+		if err != nil {
+			cells = emptyAnswerCells(append(cells, p.Msg), o.syms)
+		} else {
+			cells = answerCells(append(cells, "ok"), &ans)
+		}
+		r.tmp = cells
+		r.out = appendCSVRow(r.out, cells, o.delim)
+		return
+	}
+	b := r.out
+	if r.n > 1 {
+		b = append(b, ",\n"...)
+	} else {
+		b = append(b, '\n')
+	}
+	b = append(b, `{"row":`...)
+	b = strconv.AppendInt(b, int64(r.n), 10)
+	b = append(b, `,"status":`...)
+	if err != nil {
+		b = appendJSONString(b, p.Msg)
+		b = append(b, `,"error":{"code":`...)
+		b = appendJSONString(b, p.Code)
+		b = append(b, `,"message":`...)
+		b = appendJSONString(b, p.Msg)
+		if p.Param != "" {
+			b = append(b, `,"param":`...)
+			b = appendJSONString(b, p.Param)
+		}
+		b = append(b, '}')
+	} else {
+		b = append(b, `"ok"`...)
+	}
+	b = append(b, `,"given":`...)
+	b = o.appendGiven(b, r)
+	if err != nil {
+		r.out = append(b, '}')
+		return
+	}
+	b = append(b, ',')
+	start := len(b)
+	b = ans.AppendJSON(b, point.Inputs(in, o.opt), "")
+	// Drop the answer's opening brace: its fields continue this object.
+	r.out = append(b[:start], b[start+1:]...)
+}
+
+// appendGiven writes the row as sent: the JSON element, or the CSV cells
+// as an object keyed by the header.
+func (o *batchOut) appendGiven(b []byte, r *batchRow) []byte {
+	if o.header == nil {
+		if len(r.raw) == 0 {
+			return append(b, "null"...)
+		}
+		return append(b, r.raw...)
+	}
+	b = append(b, '{')
+	for i, c := range r.cells {
+		if i >= len(o.keys) {
+			break
+		}
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = append(b, o.keys[i]...)
+		b = append(b, ':')
+		b = appendJSONString(b, c)
+	}
+	return append(b, '}')
+}
+
+// streamBatch reads, solves and writes the rows chunk by chunk.
+func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
+	h := c.Writer.Header()
+	if o.format == "csv" {
+		h.Set("Content-Type", "text/csv; charset=utf-8")
+	} else {
+		h.Set("Content-Type", "application/json; charset=utf-8")
+	}
+	h.Set("Cache-Control", "no-store")
+	h.Set("X-Content-Type-Options", "nosniff")
+	c.Status(http.StatusOK)
+	rc := http.NewResponseController(c.Writer)
+	bw := bufio.NewWriterSize(c.Writer, 64<<10)
+	if err := o.begin(bw); err != nil {
+		return
+	}
+	rows := make([]batchRow, chunkRows)
+	total, failed := 0, 0
+	var stop *problem
+	for done := false; !done; {
+		n, bytesIn := 0, 0
+		for n < chunkRows && bytesIn < chunkBytes {
+			r := &rows[n]
+			r.n = total + n + 1
+			if r.n > s.cfg.MaxRows {
+				stop = &problem{Code: "too_many_rows", Msg: "more than " + strconv.Itoa(s.cfg.MaxRows) + " rows, this server's limit per batch; send the rest in another request"}
+				if err := src.next(r); err == io.EOF {
+					stop = nil
+				}
+				done = true
+				break
+			}
+			err := src.next(r)
+			if err == io.EOF {
+				done = true
+				break
+			}
+			if err != nil {
+				p := classify(err)
+				stop = &p
+				done = true
+				break
+			}
+			bytesIn += r.size()
+			n++
+		}
+		s.solveChunk(o, rows[:n])
+		for i := range rows[:n] {
+			if _, err := bw.Write(rows[i].out); err != nil {
+				return
+			}
+		}
+		f := countFailed(rows[:n])
+		total, failed = total+n, failed+f
+		s.metrics.rows.WithLabelValues("ok").Add(float64(n - f))
+		s.metrics.rows.WithLabelValues("failed").Add(float64(f))
+		if err := bw.Flush(); err != nil {
+			return
+		}
+		_ = rc.Flush()
+		_ = rc.SetWriteDeadline(time.Now().Add(s.cfg.WriteTimeout))
+		if c.Request.Context().Err() != nil {
+			return
+		}
+	}
+	if err := o.end(bw, total, failed, stop); err == nil {
+		_ = bw.Flush()
+	}
+	if stop != nil {
+		c.Set(ctxErrorCode, stop.Code)
+	}
+}
+
+func countFailed(rows []batchRow) int {
+	n := 0
+	for i := range rows {
+		if !rows[i].ok {
+			n++
+		}
+	}
+	return n
+}
+
+// solveChunk answers rows, on two workers when the server has them; each
+// row keeps its place, so the order of the answer is that of the body.
+func (s *Server) solveChunk(o *batchOut, rows []batchRow) {
+	if s.cfg.Workers < 2 || len(rows) < 16 {
+		for i := range rows {
+			s.answer(o, &rows[i])
+		}
+		return
+	}
+	half := len(rows) / 2
+	var wg sync.WaitGroup
+	wg.Go(func() {
+		for i := range rows[half:] {
+			s.answer(o, &rows[half+i])
+		}
+	})
+	for i := range rows[:half] {
+		s.answer(o, &rows[i])
+	}
+	wg.Wait()
+}
+
+// appendCSVRow writes cells as one CSV line, quoting as RFC 4180 and
+// encoding/csv do: a cell with the delimiter, a quote, a line break or a
+// leading space is quoted, quotes doubled.
+func appendCSVRow(b []byte, cells []string, delim rune) []byte {
+	for i, c := range cells {
+		if i > 0 {
+			b = utf8.AppendRune(b, delim)
+		}
+		if !csvNeedsQuotes(c, delim) {
+			b = append(b, c...)
+			continue
+		}
+		b = append(b, '"')
+		b = append(b, strings.ReplaceAll(c, `"`, `""`)...)
+		b = append(b, '"')
+	}
+	return append(b, '\n')
+}
+
+func csvNeedsQuotes(c string, delim rune) bool {
+	if c == "" {
+		return false
+	}
+	if c[0] == ' ' || c[0] == '\t' || c == `\.` {
+		return true
+	}
+	return strings.ContainsRune(c, delim) || strings.ContainsAny(c, "\"\r\n")
+}

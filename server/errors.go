@@ -1,0 +1,240 @@
+package server
+
+import (
+	"errors"
+	"fmt"
+	"log/slog"
+	"net/http"
+	"strings"
+	"unicode"
+	"unicode/utf8"
+
+	"github.com/gin-gonic/gin"
+
+	"steamcell/fn"
+	"steamcell/fn/point"
+	"steamcell/fn/units"
+)
+
+// Kinds of request error found by the server itself (the engine's kinds
+// come from fn, fn/units and fn/point); test for them with errors.Is.
+var (
+	// ErrBadQuery: the query string is not valid URL encoding or UTF-8.
+	ErrBadQuery = errors.New("malformed query")
+	// ErrQueryTooLong: the query string is longer than any state needs.
+	ErrQueryTooLong = errors.New("query too long")
+	// ErrUnknownParameter: a query parameter this route does not take.
+	ErrUnknownParameter = errors.New("unknown parameter")
+	// ErrRepeatedParameter: a query parameter given more than once.
+	ErrRepeatedParameter = errors.New("repeated parameter")
+	// ErrBadBody: a request body that cannot be read as CSV or JSON.
+	ErrBadBody = errors.New("malformed body")
+	// ErrBodyTooLarge: a request body over the server's limit.
+	ErrBodyTooLarge = errors.New("body too large")
+	// ErrMediaType: a body of a type the route does not read.
+	ErrMediaType = errors.New("unsupported media type")
+	// ErrUnauthorized: the server wants a token and got none or a wrong one.
+	ErrUnauthorized = errors.New("unauthorized")
+	// ErrNoRoute: no route has this path.
+	ErrNoRoute = errors.New("no such route")
+	// ErrMethod: the route exists but not for this method.
+	ErrMethod = errors.New("method not allowed")
+	// ErrNotImplemented: a route this server was started without (POST
+	// /workbook when no workbook filler is wired in).
+	ErrNotImplemented = errors.New("not implemented")
+	// ErrBadWorkbook: the workbook filler refused the file as the user's
+	// mistake (not a workbook, no input columns); see InputProblem.
+	ErrBadWorkbook = errors.New("workbook not usable")
+)
+
+// Error is a request error found by the server: which parameter, what kind
+// and a message saying what to change.
+type Error struct {
+	Param string
+	Kind  error
+	Msg   string
+}
+
+func (e *Error) Error() string { return e.Msg }
+
+// Unwrap returns the kind.
+func (e *Error) Unwrap() error { return e.Kind }
+
+func errorf(kind error, param, format string, args ...any) *Error {
+	return &Error{Param: param, Kind: kind, Msg: fmt.Sprintf(format, args...)}
+}
+
+// InputProblem marks err as caused by the request's content (a file that is
+// no workbook, a sheet without input columns), so that it is answered with
+// 400 and its message rather than as an internal error. A workbook filler
+// wraps the errors it finds in the user's file with it.
+func InputProblem(err error) error {
+	if err == nil {
+		return nil
+	}
+	return &Error{Kind: ErrBadWorkbook, Msg: err.Error()}
+}
+
+// errorClass is one row of the table from error kind to answer.
+type errorClass struct {
+	kind   error
+	status int
+	code   string
+}
+
+// errorTable maps every kind of error a request can cause to its HTTP
+// status and the stable code put in the answer. 400: the request is
+// malformed and must be rewritten; 422: it is well formed but asks for a
+// state outside what IAPWS-IF97 covers or defines. The first match wins.
+// Anything not in the table is an internal fault (500, "internal error").
+var errorTable = []errorClass{
+	// The query and the body.
+	{ErrBadQuery, http.StatusBadRequest, "malformed_query"},
+	{ErrQueryTooLong, http.StatusRequestURITooLong, "query_too_long"},
+	{ErrUnknownParameter, http.StatusBadRequest, "unknown_parameter"},
+	{ErrRepeatedParameter, http.StatusBadRequest, "repeated_parameter"},
+	{ErrBadBody, http.StatusBadRequest, "malformed_body"},
+	{ErrBodyTooLarge, http.StatusRequestEntityTooLarge, "body_too_large"},
+	{ErrMediaType, http.StatusUnsupportedMediaType, "unsupported_media_type"},
+	{ErrBadWorkbook, http.StatusBadRequest, "bad_workbook"},
+	{ErrUnauthorized, http.StatusUnauthorized, "unauthorized"},
+	{ErrNoRoute, http.StatusNotFound, "no_route"},
+	{ErrMethod, http.StatusMethodNotAllowed, "method_not_allowed"},
+	{ErrNotImplemented, http.StatusNotImplemented, "not_implemented"},
+
+	// Reading a point (fn/point).
+	{point.ErrInputCount, http.StatusBadRequest, "input_count"},
+	{point.ErrUnknownInput, http.StatusBadRequest, "unknown_input"},
+	{point.ErrUnknownProperty, http.StatusBadRequest, "unknown_property"},
+	{point.ErrUndefined, http.StatusUnprocessableEntity, "undefined_for_state"},
+
+	// Reading values with units (fn/units).
+	{units.ErrEmpty, http.StatusBadRequest, "empty_value"},
+	{units.ErrSyntax, http.StatusBadRequest, "not_a_number"},
+	{units.ErrAmbiguousNumber, http.StatusBadRequest, "ambiguous_number"},
+	{units.ErrNotFinite, http.StatusBadRequest, "not_finite"},
+	{units.ErrUnknownUnit, http.StatusBadRequest, "unknown_unit"},
+	{units.ErrWrongDimension, http.StatusBadRequest, "wrong_unit_quantity"},
+	{units.ErrNegativeAbsolute, http.StatusBadRequest, "not_above_absolute_zero"},
+	{units.ErrQualityRange, http.StatusBadRequest, "quality_range"},
+	{units.ErrUnitConflict, http.StatusBadRequest, "unit_conflict"},
+	{units.ErrBadPatm, http.StatusBadRequest, "bad_patm"},
+	{units.ErrUnknownSet, http.StatusBadRequest, "unknown_unit_set"},
+
+	// Solving the state (fn).
+	{fn.ErrNotFinite, http.StatusBadRequest, "not_finite"},
+	{fn.ErrPair, http.StatusBadRequest, "unsupported_pair"},
+	{fn.ErrOutOfRange, http.StatusUnprocessableEntity, "out_of_range"},
+	{fn.ErrAboveCritical, http.StatusUnprocessableEntity, "above_critical"},
+	{fn.ErrNoSolution, http.StatusUnprocessableEntity, "no_solution"},
+	{fn.ErrTwoSolutions, http.StatusUnprocessableEntity, "two_solutions"},
+	{fn.ErrOnSaturation, http.StatusUnprocessableEntity, "on_saturation"},
+}
+
+// internalCode is the code of every error not in errorTable.
+const internalCode = "internal"
+
+// problem is an error as the user sees it.
+type problem struct {
+	Status int
+	Code   string
+	Param  string
+	Msg    string
+}
+
+// classify is the one place that turns an error into a status, a code, the
+// parameter concerned and a message. Errors outside errorTable are internal
+// faults: their text is not shown (the caller logs it).
+func classify(err error) problem {
+	for _, c := range errorTable {
+		if errors.Is(err, c.kind) {
+			return problem{Status: c.status, Code: c.code, Param: paramOf(err), Msg: message(err)}
+		}
+	}
+	return problem{Status: http.StatusInternalServerError, Code: internalCode, Msg: "internal error"}
+}
+
+// paramOf returns the input or parameter an error is about.
+func paramOf(err error) string {
+	var se *Error
+	var pe *point.Error
+	var ue *units.InputError
+	var fe *fn.InputError
+	switch {
+	case errors.As(err, &se):
+		return clean(se.Param, 64)
+	case errors.As(err, &pe):
+		return clean(pe.Param, 64)
+	case errors.As(err, &ue):
+		return clean(ue.Name, 64)
+	case errors.As(err, &fe):
+		return clean(fe.Input, 64)
+	}
+	return ""
+}
+
+// message returns the error's text, made safe for one line of an answer.
+func message(err error) string {
+	return clean(err.Error(), 600)
+}
+
+// clean makes s one line of valid UTF-8 text of at most max bytes: invalid
+// bytes become '?', control characters a space.
+func clean(s string, max int) string {
+	s = strings.ToValidUTF8(s, "?")
+	s = strings.Map(func(r rune) rune {
+		if unicode.IsControl(r) {
+			return ' '
+		}
+		return r
+	}, s)
+	if len(s) > max {
+		cut := max
+		for cut > 0 && !utf8.RuneStart(s[cut]) {
+			cut--
+		}
+		s = s[:cut] + "…"
+	}
+	return s
+}
+
+// fail answers a JSON route with the error and stops the handler chain.
+func (s *Server) fail(c *gin.Context, err error) {
+	p := s.note(c, err)
+	b := make([]byte, 0, 256)
+	b = append(b, `{"error":{"code":`...)
+	b = appendJSONString(b, p.Code)
+	b = append(b, `,"message":`...)
+	b = appendJSONString(b, p.Msg)
+	if p.Param != "" {
+		b = append(b, `,"param":`...)
+		b = appendJSONString(b, p.Param)
+	}
+	b = append(b, "}}\n"...)
+	c.Header("Cache-Control", "no-store")
+	c.Data(p.Status, "application/json; charset=utf-8", b)
+	c.Abort()
+}
+
+// failText answers a plain-text route with a one-line reason.
+func (s *Server) failText(c *gin.Context, err error) {
+	p := s.note(c, err)
+	c.Header("Cache-Control", "no-store")
+	c.Data(p.Status, "text/plain; charset=utf-8", []byte(p.Code+": "+p.Msg+"\n"))
+	c.Abort()
+}
+
+// note classifies err, logs internal faults, records the code for the
+// request log and the metrics, and returns the problem.
+func (s *Server) note(c *gin.Context, err error) problem {
+	p := classify(err)
+	if p.Status == http.StatusUnauthorized {
+		c.Header("WWW-Authenticate", `Bearer realm="steamcell"`)
+	}
+	if p.Code == internalCode {
+		s.log.LogAttrs(c.Request.Context(), slog.LevelError, "internal error",
+			slog.String("route", routeOf(c)), slog.String("error", err.Error()))
+	}
+	c.Set(ctxErrorCode, p.Code)
+	return p
+}

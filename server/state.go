@@ -1,0 +1,116 @@
+package server
+
+import (
+	"net/http"
+	"strconv"
+	"strings"
+
+	"github.com/gin-gonic/gin"
+
+	"steamcell/fn/point"
+)
+
+// getState answers one state fixed by two inputs: every property (or
+// those of get=) as one flat JSON object, or with format=csv as a header
+// line and a value line.
+//
+// GET /state
+func (s *Server) getState(c *gin.Context) {
+	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs|takesGet|takesFormat)
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	st, in, err := point.Solve(req.given, req.opt)
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	syms := req.syms
+	if syms == nil {
+		syms = point.DefaultSymbols()
+	}
+	ans := point.Render(&st, syms, req.opt)
+	if req.format == "csv" {
+		writeBody(c, http.StatusOK, csvType, appendAnswerCSV(nil, &ans, syms, req.opt.Set))
+		return
+	}
+	buf := getBuf()
+	defer putBuf(buf)
+	*buf = ans.AppendJSON(*buf, point.Inputs(in, req.opt), Caution)
+	*buf = append(*buf, '\n')
+	writeBody(c, http.StatusOK, jsonType, *buf)
+}
+
+// getStateProperty answers one property of one state as a bare number in
+// text/plain (in the units of units= and unit_…=), so that a spreadsheet
+// formula can use the body as a value. "phase" and "region" answer the
+// phase in words and the IF97 region. Errors are one line of text with a
+// non-200 status, which spreadsheets show as an error in the cell.
+//
+// GET /state/{property}
+func (s *Server) getStateProperty(c *gin.Context) {
+	prop := c.Param("property")
+	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	var syms []string
+	word := strings.ToLower(prop)
+	if word != "phase" && word != "region" {
+		if strings.EqualFold(prop, "all") || strings.Contains(prop, ",") {
+			s.failText(c, &point.Error{Param: clean(prop, 40), Kind: point.ErrUnknownProperty,
+				Msg: "/state/{property} answers one property, e.g. /state/h; use /state?get=h,s for several"})
+			return
+		}
+		if syms, err = point.Symbols([]string{prop}); err != nil {
+			s.failText(c, err)
+			return
+		}
+	}
+	st, _, err := point.Solve(req.given, req.opt)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	ans := point.Render(&st, syms, req.opt)
+	if len(ans.Warnings) > 0 {
+		c.Header("Steamcell-Warning", headerText(strings.Join(ans.Warnings, "; ")))
+	}
+	buf := getBuf()
+	defer putBuf(buf)
+	switch word {
+	case "phase":
+		*buf = append(*buf, ans.Phase...)
+	case "region":
+		*buf = strconv.AppendInt(*buf, int64(ans.Region), 10)
+	default:
+		f, err := ans.Value(syms[0])
+		if err != nil {
+			s.failText(c, err)
+			return
+		}
+		*buf = appendNumber(*buf, f.Value)
+	}
+	writeBody(c, http.StatusOK, textType, *buf)
+}
+
+// headerText makes s a header value: printable ASCII, non-ASCII letters
+// replaced ("°" by "deg"), at most 500 bytes.
+func headerText(s string) string {
+	s = strings.ReplaceAll(s, "°", "deg ")
+	b := make([]byte, 0, len(s))
+	for i := 0; i < len(s) && len(b) < 500; i++ {
+		ch := s[i]
+		switch {
+		case ch >= 0x20 && ch < 0x7f:
+			b = append(b, ch)
+		case ch >= 0x80 && (ch&0xc0) == 0x80:
+			// continuation byte of a replaced rune
+		default:
+			b = append(b, '?')
+		}
+	}
+	return string(b)
+}
