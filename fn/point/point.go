@@ -137,6 +137,17 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 		return fn.State{}, in, err
 	}
 	st, err := fn.Solve(in[0], in[1])
+	var ie *fn.InputError
+	if errors.As(err, &ie) && !ie.Pair {
+		// The engine speaks in base units; echo the input as the user gave
+		// it, so the message reads in their units too.
+		for i, g := range given {
+			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
+				err = fmt.Errorf("%w (given as %s=%s)", err, g.Name, strings.TrimSpace(g.Text+" "+g.Unit))
+				break
+			}
+		}
+	}
 	return st, in, err
 }
 
