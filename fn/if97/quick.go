@@ -1,0 +1,47 @@
+package if97
+
+import "math"
+
+// The solves of package fn for T at a given pressure (from (p,h) or (p,s))
+// take one Newton step from the backward equation's estimate before the
+// full property set is computed. That step needs h, s and cp only, which
+// need only γ, γτ and γττ of the Gibbs free energy: about half the sums of
+// Region1 or Region2. The functions below give just those, by the same
+// equations and coefficients (R7-97(2012) Eq. 7 with Tables 2 and 3 for
+// region 1, Eq. 15 with Tables 10, 11 and 12 for region 2).
+
+// Region1HSCp returns the specific enthalpy (kJ/kg), specific entropy
+// (kJ/(kg·K)) and isobaric heat capacity (kJ/(kg·K)) of region 1 at p (MPa)
+// and T (K): the same values as Region1, without the other properties.
+func Region1HSCp(p, T float64) (h, s, cp float64) {
+	pi, tau := p/r1PStar, r1TStar/T
+	g, gt, gtt := regPolySumB(r1Coef[:], 7.1-pi, tau-1.222)
+	return quickHSCp(T, tau, g, gt, gtt)
+}
+
+// Region2HSCp returns h, s and cp of region 2 at p (MPa) and T (K), as
+// Region2 would, without the other properties.
+func Region2HSCp(p, T float64) (h, s, cp float64) {
+	pi, tau := p/r2PStar, r2TStar/T
+	g0, gt0, gtt0 := regPolySumB(r2IdealCoef[:], pi, tau)
+	gr, gtr, gttr := regPolySumB(r2ResidualCoef[:], pi, tau-0.5)
+	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr)
+}
+
+// quickHSCp applies the relations of R7-97(2012) Table 3 for h, s and cp.
+func quickHSCp(T, tau, g, gt, gtt float64) (h, s, cp float64) {
+	return R * T * tau * gt, R * (tau*gt - g), -R * tau * tau * gtt
+}
+
+// regPolySumB returns Σ n·a^I·b^J over rows and its first and second
+// derivatives in b only.
+func regPolySumB(rows []term, a, b float64) (f, fb, fbb float64) {
+	for _, r := range rows {
+		a0 := powi(a, r.I)
+		b0, b1, b2 := regPowDerivs(b, r.J)
+		f += r.n * a0 * b0
+		fb += r.n * a0 * b1
+		fbb += r.n * a0 * b2
+	}
+	return f, fb, fbb
+}
