@@ -71,8 +71,8 @@ func fromPQ(p float64, in Input) (State, error) {
 			}
 		}
 	case p > P13Sat:
-		// Regions 1 and 2 are bounded by isotherms here; region 3 is tried
-		// only at or above pc, where no two-phase state can fit.
+		// Regions 1 and 2 are bounded by isotherms here; a region-3 answer
+		// below pc must lie on its phase's side of Ts(p) (region3SideOK).
 		order := []int{2, 3, 1}
 		if liquidFirst {
 			order = []int{1, 3, 2}
@@ -88,10 +88,7 @@ func fromPQ(p float64, in Input) (State, error) {
 					return st, nil
 				}
 			case 3:
-				if p < if97.Pc {
-					continue
-				}
-				if pr, ok := tryAtP3(p, q, val); ok {
+				if pr, ok := tryAtP3(p, q, val); ok && region3SideOK(&pr, p) {
 					return singleState(3, pr), nil
 				}
 			}
@@ -351,4 +348,27 @@ func solveAtPV3(p, rho, tLo, tHi float64) (if97.Props, bool) {
 	fhi, _ := f(tHi)
 	T, ok := rootBracketed(f, tLo, tHi, flo, fhi, (tLo+tHi)/2, 1e-15)
 	return if97.Region3(rho, T), ok
+}
+
+// region3SideOK reports whether a region-3 state solved at pressure p is
+// a stable single phase: at or above pc always. Below pc its density must
+// lie clearly outside the saturated densities at Ts(p), estimated by the
+// SR5-05(2016) v(p,T) just below and just above Ts on either side (those
+// equations agree with the Helmholtz equation to 0.001 % there, so a margin
+// of 0.1 % is safe); inside lie the superheated-liquid, supercooled-vapour
+// and unstable states of the Helmholtz equation. Close to pc (above 21 MPa,
+// where SR5-05's auxiliary equations are less accurate) and within the
+// margin it answers false and the exact path decides.
+// TestRegion3SideRejectsWetStates checks that no wet state passes.
+func region3SideOK(pr *if97.Props, p float64) bool {
+	if p >= if97.Pc {
+		return true
+	}
+	if p > 21 {
+		return false
+	}
+	ts := if97.SatTemperature(p)
+	rl := 1 / if97.Region3VFromPT(p, ts*(1-1e-9))
+	rv := 1 / if97.Region3VFromPT(p, ts*(1+1e-9))
+	return pr.Rho > rl*1.001 || pr.Rho < rv*0.999
 }

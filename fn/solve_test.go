@@ -154,3 +154,30 @@ func TestRoundTripTwoPhase(t *testing.T) {
 		}
 	}
 }
+
+// A (p,h) or (p,s) inside the two-phase dome between 16.529 MPa and pc must
+// never be answered by a single-phase region-3 state: the fast path's side
+// check (region3SideOK) is tried on dense wet states and must refuse them
+// all, and Solve must return the wet state. Identity check, no source. (The
+// ends x = 0 and 1 are left out: there the region-3 isobar at Eq. 30's
+// pressure meets h' and s' within 1e-4 K of Ts, inside IF97's consistency,
+// so a compressed liquid at that distance is as right an answer.)
+func TestRegion3SideRejectsWetStates(t *testing.T) {
+	for T := 623.2; T < if97.Tc-0.01; T += 0.25 {
+		for x := 0.025; x < 1; x += 0.05 {
+			wet, err := FromTX(T, x)
+			if err != nil {
+				t.Fatal(err)
+			}
+			for _, q := range []Input{{Enthalpy, wet.H}, {Entropy, wet.S}} {
+				if pr, ok := tryAtP3(wet.P, q.Q, q.Value); ok && region3SideOK(&pr, wet.P) {
+					t.Errorf("T=%g K, x=%g: %v = %g accepted as region-3 state T=%g K, rho=%g", T, x, q.Q, q.Value, pr.T, pr.Rho)
+				}
+				got, err := Solve(Input{Pressure, wet.P}, q)
+				if err != nil || !got.HasX || !scalar.EqualWithinAbs(got.X, x, 1e-6) {
+					t.Errorf("Solve(p=%g, %v=%g) = x %g (phase %v), %v; want x = %g", wet.P, q.Q, q.Value, got.X, got.Phase, err, x)
+				}
+			}
+		}
+	}
+}
