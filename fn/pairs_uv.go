@@ -68,9 +68,10 @@ func FromUV(u, v float64) (State, error) {
 	return fromTV(T, v)
 }
 
-// fastUV tries (u, v) by Newton steps from rough starts: in region 3 at the
-// given density (where ρ is a native variable, so the solve is for T
-// alone), in regions 1, 2 and 5 in (p, T). An answer counts only if it lies
+// fastUV tries (u, v) by Newton steps from rough starts: first in region 3
+// at the given density (where ρ is a native variable, so the solve is for T
+// alone and cheap even when it lands outside region 3), then in regions 1,
+// 2 and 5 in (p, T). An answer counts only if it lies
 // in the region solved in and, on the saturation dome's side, in a stable
 // single phase: below Tc its pressure must be above ps(T) for liquid
 // (v below the critical volume) and below it for vapour, and a region-3
@@ -97,6 +98,14 @@ func fastUV(u, v float64) (State, bool) {
 		return State{}, false
 	}
 	rho := 1 / v
+	// Region 3 first where the density allows it: at a given density the
+	// solve is for T alone, cheap even when it lands outside region 3.
+	if rho > 100 && rho < 800 {
+		pr, ok := newton1n(3, InternalEnergy, u, rho, 700, true, 20)
+		if ok && if97.RegionOf(pr.P, pr.T) == 3 && stableRegion3(&pr) {
+			return singleState(3, pr), true
+		}
+	}
 	if v < 0.0017 { // liquid-like: region 1 from cp ≈ 4.2 kJ/(kg·K)
 		t0 := math.Min(T13, math.Max(TMin, TMin+u/4.2))
 		pr, ok := newton2n(1, Volume, v, InternalEnergy, u, math.Min(PMax, if97.SatPressure(t0)+5), t0, 20, 1)
@@ -117,16 +126,10 @@ func fastUV(u, v float64) (State, bool) {
 			} else {
 				t = math.Min(t0, TMax-1)
 			}
-			pr, ok := newton2n(r, Volume, v, InternalEnergy, u, if97.R*t/(mpaM3*v), t, 30, 1)
+			pr, ok := newton2n(r, Volume, v, InternalEnergy, u, if97.R*t/(mpaM3*v), t, 20, 1)
 			if st, ok := accept(r, pr, ok); ok {
 				return st, true
 			}
-		}
-	}
-	if rho > 100 && rho < 800 {
-		pr, ok := newton1n(3, InternalEnergy, u, rho, 700, true, 20)
-		if ok && if97.RegionOf(pr.P, pr.T) == 3 && stableRegion3(&pr) {
-			return singleState(3, pr), true
 		}
 	}
 	return State{}, false
