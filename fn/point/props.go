@@ -30,7 +30,7 @@ type view struct {
 	sigmaOK        bool
 	sigmaDone      bool
 	sigmaWarn      string
-	satDone, satOK bool
+	satDone        bool
 	tsat, psat     float64
 	tsatOK, psatOK bool
 }
