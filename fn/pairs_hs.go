@@ -28,29 +28,34 @@ func FromHS(h, s float64) (State, error) {
 	if err := checkFinite(Input{Enthalpy, h}, Input{Entropy, s}); err != nil {
 		return State{}, err
 	}
-	lo, ok := saturationAt(TMin)
-	if !ok {
-		return State{}, noConvergence("h,s")
-	}
+	lo := &satAtTMin
 	if s >= lo.Liquid.S && s <= lo.Vapour.S {
 		// The 273.15 K isotherm through the two-phase region bounds the range.
 		l, g := &lo.Liquid, &lo.Vapour
 		if hMin := l.H + (s-l.S)*(g.H-l.H)/(g.S-l.S); h < hMin {
 			return State{}, outOfRange(Enthalpy, h, hMin, "h below %.8g kJ/kg, its value at %g K for this s", hMin, TMin)
 		}
-		// Points well above the saturation line skip the exact test: the
-		// SR4-04(2014) boundary equations h'(s), h''(s) deviate from the
+		// Single-phase answers are tried first: stable states map to (h, s)
+		// one to one, so a stable single-phase answer rules out a wet one.
+		// Points well above the saturation line need no more: the SR4-04
+		// (2014) boundary equations h'(s), h''(s) deviate from the
 		// saturation line of the phase equations by less than 0.01 kJ/kg
-		// (measured over 273.16 K … Tc in 0.05 K steps), so a margin of
-		// 0.1 kJ/kg is safe.
+		// (measured over 273.16 K … Tc in 0.05 K steps), so a margin of 0.1
+		// kJ/kg is safe. The rest get the exact two-phase test.
+		for _, r := range regionOrderHS(h, s) {
+			if r, pr, ok := solveHS(r, h, s); ok {
+				return singleState(r, pr), nil
+			}
+		}
 		if h <= satLineApprox(s)+0.1 {
 			if st, ok, err := twoPhaseHS(h, s); err != nil || ok {
 				return st, err
 			}
 		}
+		return nestedHS(h, s)
 	}
 	for _, r := range regionOrderHS(h, s) {
-		if pr, ok := solveHS(r, h, s); ok {
+		if r, pr, ok := solveHS(r, h, s); ok {
 			return singleState(r, pr), nil
 		}
 	}
@@ -150,15 +155,16 @@ func regionOrderHS(h, s float64) []int {
 		return []int{3, 2, 1, 5}
 	case h > 4200: // above region 2's highest enthalpy (at 1073.15 K, low p)
 		return []int{5, 2, 3, 1}
-	case h > 3850:
-		return []int{2, 5, 3, 1}
 	}
 	return []int{2, 3, 5, 1}
 }
 
 // solveHS solves (h, s) in region r by Newton steps from the backward
-// equations' start and reports whether the answer lies in region r.
-func solveHS(r int, h, s float64) (if97.Props, bool) {
+// equations' start and reports whether the answer lies in region r; with
+// the region it lies in, which is 5 where region 2's equation, extended
+// past 1073.15 K, led there and region 5's solve from that point
+// confirmed it.
+func solveHS(r int, h, s float64) (int, if97.Props, bool) {
 	var a, T float64
 	switch r {
 	case 1:
@@ -176,7 +182,14 @@ func solveHS(r int, h, s float64) (if97.Props, bool) {
 			a = math.Max(a, 1.0001*ps)
 		}
 	case 2:
-		a = if97.Region2PFromHS(h, s)
+		if s >= 5.85 && h > if97.B2abEnthalpy(s) {
+			// Sub-region 2b: SR2-01's Eq. 4 is not in this code (see
+			// if97.Region2PFromHS); Newton steps from 20 MPa get there
+			// as fast as its stand-in would.
+			a = 20
+		} else {
+			a = if97.Region2PFromHS(h, s)
+		}
 		T = if97.Region2TFromPH(a, h)
 	case 3:
 		p := if97.Region3PFromHS(h, s)
@@ -192,10 +205,18 @@ func solveHS(r int, h, s float64) (if97.Props, bool) {
 		}
 	}
 	pr, ok := newton2n(r, Enthalpy, h, Entropy, s, a, T, 20, 1e-3)
-	if !ok || if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
-		return pr, false
+	if ok && r == 2 && pr.T > TMax && pr.P <= PMaxHigh {
+		if pr5, ok := newton2n(5, Enthalpy, h, Entropy, s, pr.P, pr.T, 20, 1e-3); ok && if97.RegionOf(pr5.P, pr5.T) == 5 {
+			return 5, pr5, true
+		}
 	}
-	return pr, true
+	if !ok || if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
+		return r, pr, false
+	}
+	if r == 3 && !stableRegion3(&pr) {
+		return r, pr, false // a metastable or unstable state inside the dome
+	}
+	return r, pr, true
 }
 
 // onBoundary reports whether (p, T) lies within rounding of the edge of
@@ -214,15 +235,16 @@ func onBoundary(r int, p, T float64) bool {
 }
 
 // startHS5 estimates (p, T) in region 5 from (h, s): T where h(1 MPa, T) = h
-// (h hardly depends on p there), then p from the ideal-gas relation
-// s(p) = s(1 MPa) − R ln p.
+// by Newton steps on cp (h hardly depends on p there, and cp hardly on T),
+// then p from the ideal-gas relation s(p) = s(1 MPa) − R ln p.
 func startHS5(h, s float64) (p, T float64) {
-	f := func(T float64) float64 { return if97.Region5(1, T).H - h }
-	T, ok := rootBrent(f, TMax, TMaxHigh, f(TMax), f(TMaxHigh), 1e-10)
-	if !ok {
-		T = 1600
+	T = 1600
+	var pr if97.Props
+	for i := 0; i < 3; i++ { // the 2D solve that follows finishes the job
+		pr = if97.Region5(1, T)
+		T = math.Min(TMaxHigh, math.Max(TMax, T-(pr.H-h)/pr.Cp))
 	}
-	p = math.Exp((if97.Region5(1, T).S - s) / if97.R)
+	p = math.Exp((pr.S + pr.Cp*math.Log(T/pr.T) - s) / if97.R)
 	return math.Min(math.Max(p, 1e-6), PMaxHigh), T
 }
 

@@ -17,6 +17,10 @@ type Saturation struct {
 // R7-97(2012) Eq. 30 (611.213 Pa), in MPa.
 var PMinSat = if97.SatPressure(TMin)
 
+// satAtTMin is the saturation state at 273.15 K, the bottom of the range,
+// which several solves compare their inputs with.
+var satAtTMin, _ = saturationAt(TMin)
+
 // saturationAt returns the saturation state at T (TMin ≤ T ≤ Tc, unchecked).
 //
 // Up to 623.15 K the liquid is from region 1 and the vapour from region 2 at
