@@ -71,27 +71,29 @@ func fromPQ(p float64, in Input) (State, error) {
 			}
 		}
 	case p > P13Sat:
-		// Regions 1 and 2 are bounded by isotherms here; a region-3 answer
-		// below pc must lie on its phase's side of Ts(p) (region3SideOK).
-		order := []int{2, 3, 1}
-		if liquidFirst {
-			order = []int{1, 3, 2}
-		}
-		for _, r := range order {
-			switch r {
-			case 1:
-				if pr, ok := tryAtP(1, p, q, val); ok && pr.T <= T13 && pr.T >= TMin {
-					return singleState(1, pr), nil
-				}
-			case 2:
-				if st, ok := tryVapourAtP(p, q, val, if97.B23Temperature(p)); ok {
-					return st, nil
-				}
-			case 3:
-				if pr, ok := tryAtP3(p, q, val); ok && region3SideOK(&pr, p) {
-					return singleState(3, pr), nil
-				}
+		// Regions 1 and 2 are bounded by isotherms here (623.15 K and the
+		// B23 line). The backward estimates of regions 1 and 2 (cheap next
+		// to a failed Newton solve) say which of them can hold the answer;
+		// a region-3 answer below pc must also pass region3SideOK.
+		tb := if97.B23Temperature(p)
+		t2 := backwardT(2, p, q, val)
+		// Regions 2 and 5 start above 2400 kJ/kg and 4.9 kJ/(kg·K) at these
+		// pressures (their values on the B23 line); below, region 2's
+		// backward equations run wild (a liquid's h gives T in the millions).
+		vapourPossible := q == Enthalpy && val > 2400 || q == Entropy && val > 4.9
+		if vapourPossible && t2 > tb-10 {
+			if st, ok := tryVapourAtPFrom(p, q, val, tb, t2); ok {
+				return st, nil
 			}
+		}
+		t1 := backwardT(1, p, q, val)
+		if t1 < T13+10 {
+			if pr, ok := tryAtPFrom(1, p, q, val, t1); ok && pr.T <= T13 && pr.T >= TMin {
+				return singleState(1, pr), nil
+			}
+		}
+		if pr, ok := tryAtP3(p, q, val); ok && region3SideOK(&pr, p) {
+			return singleState(3, pr), nil
 		}
 	}
 	return fromPQExact(p, q, val)
@@ -101,7 +103,11 @@ func fromPQ(p float64, in Input) (State, error) {
 // (extended past 1073.15 K, which its regionBox allows) puts the answer
 // above 1073.15 K, region 5 from there.
 func tryVapourAtP(p float64, q Quantity, val, tLo float64) (State, bool) {
-	t0 := backwardT(2, p, q, val)
+	return tryVapourAtPFrom(p, q, val, tLo, backwardT(2, p, q, val))
+}
+
+// tryVapourAtPFrom is tryVapourAtP from region 2's backward estimate t0.
+func tryVapourAtPFrom(p float64, q Quantity, val, tLo, t0 float64) (State, bool) {
 	if t0 > TMax+50 && p <= PMaxHigh {
 		// Far above region 2: region 5 straight from the backward estimate.
 		if pr, ok := newton1n(5, q, val, p, math.Min(t0, TMaxHigh), true, 12); ok && pr.T > TMax && pr.T <= TMaxHigh {
