@@ -153,14 +153,32 @@ func fastPV(p, v float64) (State, bool) {
 	return State{}, false
 }
 
-// stableRegion3 reports whether a region-3 state is a stable single phase:
-// above Tc always; below it only with a density outside the saturated
+// stableRegion3 reports whether a region-3 state is a stable single phase
+// inside the range: not denser than at 100 MPa (region3Dense); above Tc
+// then always; below it only with a density outside the saturated
 // densities at its temperature (inside lie metastable and unstable states
 // of the Helmholtz equation).
 func stableRegion3(pr *if97.Props) bool {
+	if !region3Dense(pr) {
+		return false
+	}
 	if pr.T >= if97.Tc {
 		return true
 	}
 	rl, rv, ok := if97.Region3SatDensities(pr.T)
 	return ok && (pr.Rho > rl || pr.Rho < rv)
+}
+
+// region3Dense reports whether a region-3 state lies within the range of
+// validity on the dense side: mechanically stable ((∂p/∂ρ)_T > 0) and not
+// denser than the state at 100 MPa and its temperature. Beyond that the
+// Helmholtz equation is extrapolated and can bend back to pressures below
+// 100 MPa with a negative compressibility (found by FuzzSolve at 647 K,
+// 987.5 kg/m³).
+func region3Dense(pr *if97.Props) bool {
+	if !(pr.KappaT > 0) {
+		return false
+	}
+	rhoTop, ok := region3Density(PMax, pr.T)
+	return ok && pr.Rho <= rhoTop*(1+1e-12)
 }

@@ -89,7 +89,7 @@ func fromTV(T, v float64) (State, error) {
 	pb := if97.B23Pressure(T)
 	pr := if97.Region3(1/v, T)
 	switch {
-	case pr.P > pTop:
+	case pr.P > pTop || pr.P >= pb && !region3Dense(&pr):
 		return State{}, tooDense()
 	case pr.P >= pb:
 		return singleState(3, pr), nil
