@@ -6,9 +6,10 @@ import "math"
 // take one Newton step from the backward equation's estimate before the
 // full property set is computed. That step needs h, s and cp only, which
 // need only γ, γτ and γττ of the Gibbs free energy: about half the sums of
-// Region1 or Region2. The functions below give just those, by the same
-// equations and coefficients (R7-97(2012) Eq. 7 with Tables 2 and 3 for
-// region 1, Eq. 15 with Tables 10, 11 and 12 for region 2).
+// Region1, Region2 or Region5. The functions below give just those, by the
+// same equations and coefficients (R7-97(2012) Eq. 7 with Tables 2 and 3
+// for region 1, Eq. 15 with Tables 10, 11 and 12 for region 2, Eq. 32 with
+// Tables 37 to 39 for region 5).
 
 // Region1HSCp returns the specific enthalpy (kJ/kg), specific entropy
 // (kJ/(kg·K)) and isobaric heat capacity (kJ/(kg·K)) of region 1 at p (MPa)
@@ -25,6 +26,16 @@ func Region2HSCp(p, T float64) (h, s, cp float64) {
 	pi, tau := p/r2PStar, r2TStar/T
 	g0, gt0, gtt0 := regPolySumB(r2IdealCoef[:], pi, tau)
 	gr, gtr, gttr := regPolySumB(r2ResidualCoef[:], pi, tau-0.5)
+	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr)
+}
+
+// Region5HSCp returns h, s and cp of region 5 at p (MPa) and T (K), as
+// Region5 would (R7-97(2012) Eq. 32, Tables 37 to 39), without the other
+// properties.
+func Region5HSCp(p, T float64) (h, s, cp float64) {
+	pi, tau := p/r5PStar, r5TStar/T
+	g0, gt0, gtt0 := regPolySumB(r5IdealCoef[:], pi, tau)
+	gr, gtr, gttr := regPolySumB(r5ResidualCoef[:], pi, tau)
 	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr)
 }
 

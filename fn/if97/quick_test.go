@@ -20,6 +20,13 @@ func TestQuickSubsetsMatchFullProps(t *testing.T) {
 		if !scalar.EqualWithinRel(h, f.H, 1e-12) || !scalar.EqualWithinAbsOrRel(s, f.S, 1e-15, 1e-12) || !scalar.EqualWithinRel(cp, f.Cp, 1e-12) {
 			t.Fatalf("Region1HSCp(%g, %g) = %g, %g, %g; Region1 gives %g, %g, %g", p, T, h, s, cp, f.H, f.S, f.Cp)
 		}
+		T5 := 1073.15 + rng.Float64()*1200
+		p5 := 1e-3 + rng.Float64()*50
+		h, s, cp = Region5HSCp(p5, T5)
+		f = Region5(p5, T5)
+		if !scalar.EqualWithinRel(h, f.H, 1e-12) || !scalar.EqualWithinRel(s, f.S, 1e-12) || !scalar.EqualWithinRel(cp, f.Cp, 1e-12) {
+			t.Fatalf("Region5HSCp(%g, %g) = %g, %g, %g; Region5 gives %g, %g, %g", p5, T5, h, s, cp, f.H, f.S, f.Cp)
+		}
 		T2 := 273.15 + rng.Float64()*800
 		p2 := 1e-3 + rng.Float64()*10
 		h, s, cp = Region2HSCp(p2, T2)
