@@ -179,6 +179,12 @@ func region3Dense(pr *if97.Props) bool {
 	if !(pr.KappaT > 0) {
 		return false
 	}
+	// Region 3's density at 100 MPa is at least 386.89 kg/m³ (at the top of
+	// the B23 line, 863.15 K; measured in 0.01 K steps); below 380 no
+	// state can be denser than it, and the solve for it is skipped.
+	if pr.Rho < 380 {
+		return true
+	}
 	rhoTop, ok := region3Density(PMax, pr.T)
 	return ok && pr.Rho <= rhoTop*(1+1e-12)
 }
