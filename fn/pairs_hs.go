@@ -9,7 +9,8 @@ import (
 // Entropy of the critical point, kJ/(kg·K), SR3-03(2014) section 3.3 (sc).
 const sCrit = 4.41202148223476
 
-// satAtTOrNaN returns the saturation state at T, or ok = false.
+// satQ returns quantity q of the saturated liquid and vapour at T, with
+// the saturation state; ok is false where it cannot be computed.
 func satQ(T float64, q Quantity) (ql, qv float64, sat Saturation, ok bool) {
 	sat, ok = saturationAt(T)
 	return value(q, &sat.Liquid), value(q, &sat.Vapour), sat, ok
