@@ -375,23 +375,31 @@ func quickSteps(r int, p float64, q Quantity, val, t0 float64) float64 {
 		return t0
 	}
 	for i := 0; i < 4; i++ {
-		var h, s, cp float64
+		var h, s, cp, dcp float64
 		switch r {
 		case 1:
-			h, s, cp = if97.Region1HSCp(p, t0)
+			h, s, cp, dcp = if97.Region1HSCp(p, t0)
 		case 2:
-			h, s, cp = if97.Region2HSCp(p, t0)
+			h, s, cp, dcp = if97.Region2HSCp(p, t0)
 		case 5:
-			h, s, cp = if97.Region5HSCp(p, t0)
+			h, s, cp, dcp = if97.Region5HSCp(p, t0)
 		}
 		if !(cp > 0) {
 			return t0
 		}
-		var step float64
+		// Halley's step on f(T) = q(T) − val: the second derivative (from
+		// dcp/dT) makes it cubic, so that a backward estimate within 25 mK
+		// comes out within rounding of the root, and the full solve stops at
+		// its first evaluation.
+		var f, f1, f2 float64
 		if q == Enthalpy {
-			step = (h - val) / cp
+			f, f1, f2 = h-val, cp, dcp
 		} else {
-			step = (s - val) * t0 / cp
+			f, f1, f2 = s-val, cp/t0, dcp/t0-cp/(t0*t0)
+		}
+		step := f / f1
+		if d := 1 - step*f2/(2*f1); d > 0.5 {
+			step /= d
 		}
 		// Keep a wild step from a start outside the region inside reason.
 		step = math.Max(-t0/3, math.Min(t0/3, step))

@@ -13,46 +13,57 @@ import "math"
 
 // Region1HSCp returns the specific enthalpy (kJ/kg), specific entropy
 // (kJ/(kg·K)) and isobaric heat capacity (kJ/(kg·K)) of region 1 at p (MPa)
-// and T (K): the same values as Region1, without the other properties.
-func Region1HSCp(p, T float64) (h, s, cp float64) {
+// and T (K), the same values as Region1, without the other properties;
+// and dcp/dT (kJ/(kg·K²)), for Halley steps.
+func Region1HSCp(p, T float64) (h, s, cp, dcp float64) {
 	pi, tau := p/r1PStar, r1TStar/T
-	g, gt, gtt := regPolySumB(r1Coef[:], 7.1-pi, tau-1.222)
-	return quickHSCp(T, tau, g, gt, gtt)
+	g, gt, gtt, gttt := regPolySumB(r1Coef[:], 7.1-pi, tau-1.222)
+	return quickHSCp(T, tau, g, gt, gtt, gttt)
 }
 
 // Region2HSCp returns h, s and cp of region 2 at p (MPa) and T (K), as
 // Region2 would, without the other properties.
-func Region2HSCp(p, T float64) (h, s, cp float64) {
+func Region2HSCp(p, T float64) (h, s, cp, dcp float64) {
 	pi, tau := p/r2PStar, r2TStar/T
-	g0, gt0, gtt0 := regPolySumB(r2IdealCoef[:], pi, tau)
-	gr, gtr, gttr := regPolySumB(r2ResidualCoef[:], pi, tau-0.5)
-	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr)
+	g0, gt0, gtt0, g30 := regPolySumB(r2IdealCoef[:], pi, tau)
+	gr, gtr, gttr, g3r := regPolySumB(r2ResidualCoef[:], pi, tau-0.5)
+	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr, g30+g3r)
 }
 
 // Region5HSCp returns h, s and cp of region 5 at p (MPa) and T (K), as
 // Region5 would (R7-97(2012) Eq. 32, Tables 37 to 39), without the other
 // properties.
-func Region5HSCp(p, T float64) (h, s, cp float64) {
+func Region5HSCp(p, T float64) (h, s, cp, dcp float64) {
 	pi, tau := p/r5PStar, r5TStar/T
-	g0, gt0, gtt0 := regPolySumB(r5IdealCoef[:], pi, tau)
-	gr, gtr, gttr := regPolySumB(r5ResidualCoef[:], pi, tau)
-	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr)
+	g0, gt0, gtt0, g30 := regPolySumB(r5IdealCoef[:], pi, tau)
+	gr, gtr, gttr, g3r := regPolySumB(r5ResidualCoef[:], pi, tau)
+	return quickHSCp(T, tau, g0+math.Log(pi)+gr, gt0+gtr, gtt0+gttr, g30+g3r)
 }
 
-// quickHSCp applies the relations of R7-97(2012) Table 3 for h, s and cp.
-func quickHSCp(T, tau, g, gt, gtt float64) (h, s, cp float64) {
-	return R * T * tau * gt, R * (tau*gt - g), -R * tau * tau * gtt
+// quickHSCp applies the relations of R7-97(2012) Table 3 for h, s and cp,
+// and dcp/dT = (R τ²/T)(2γττ + τ γτττ), from cp = −R τ² γττ with
+// dτ/dT = −τ/T.
+func quickHSCp(T, tau, g, gt, gtt, gttt float64) (h, s, cp, dcp float64) {
+	return R * T * tau * gt, R * (tau*gt - g), -R * tau * tau * gtt, R * tau * tau / T * (2*gtt + tau*gttt)
 }
 
-// regPolySumB returns Σ n·a^I·b^J over rows and its first and second
+// regPolySumB returns Σ n·a^I·b^J over rows and its first three
 // derivatives in b only.
-func regPolySumB(rows []term, a, b float64) (f, fb, fbb float64) {
+func regPolySumB(rows []term, a, b float64) (f, fb, fbb, fbbb float64) {
 	for _, r := range rows {
 		a0 := powi(a, r.I)
 		b0, b1, b2 := regPowDerivs(b, r.J)
+		k := float64(r.J)
+		var b3 float64
+		if b != 0 {
+			b3 = b2 * (k - 2) / b
+		} else if r.J == 3 {
+			b3 = 6
+		}
 		f += r.n * a0 * b0
 		fb += r.n * a0 * b1
 		fbb += r.n * a0 * b2
+		fbbb += r.n * a0 * b3
 	}
-	return f, fb, fbb
+	return f, fb, fbb, fbbb
 }
