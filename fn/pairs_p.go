@@ -347,15 +347,17 @@ func solveAtPV3(p, rho, tLo, tHi float64) (if97.Props, bool) {
 // equations agree with the Helmholtz equation to 0.001 % there, so a margin
 // of 0.1 % is safe); inside lie the superheated-liquid, supercooled-vapour
 // and unstable states of the Helmholtz equation. Close to pc (above 21 MPa,
-// where SR5-05's auxiliary equations are less accurate) and within the
-// margin it answers false and the exact path decides.
+// where SR5-05's auxiliary equations are less accurate) it compares with
+// the exact saturated densities at the state's own temperature
+// (stableRegion3); within the margin it answers false and the exact path
+// decides.
 // TestRegion3SideRejectsWetStates checks that no wet state passes.
 func region3SideOK(pr *if97.Props, p float64) bool {
 	if p >= if97.Pc {
 		return true
 	}
 	if p > 21 {
-		return false
+		return stableRegion3(pr)
 	}
 	ts := if97.SatTemperature(p)
 	rl := 1 / if97.Region3VFromPT(p, ts*(1-1e-9))
