@@ -6,9 +6,6 @@ import (
 	"steamcell/fn/if97"
 )
 
-// Entropy of the critical point, kJ/(kg·K), SR3-03(2014) section 3.3 (sc).
-const sCrit = 4.41202148223476
-
 // satQ returns quantity q of the saturated liquid and vapour at T, with
 // the saturation state; ok is false where it cannot be computed.
 func satQ(T float64, q Quantity) (ql, qv float64, sat Saturation, ok bool) {
@@ -104,7 +101,7 @@ func twoPhaseHS(h, s float64) (State, bool, error) {
 	// The temperature at which the saturation line has entropy s.
 	q := func(T float64) float64 {
 		sl, sv, _, _ := satQ(T, Entropy)
-		if s <= sCrit {
+		if s <= if97.Sc {
 			return sl - s
 		}
 		return sv - s
@@ -115,7 +112,7 @@ func twoPhaseHS(h, s float64) (State, bool, error) {
 	}
 	sat, _ := saturationAt(tb)
 	hb := sat.Liquid.H
-	if s > sCrit {
+	if s > if97.Sc {
 		hb = sat.Vapour.H
 	}
 	if h > hb {
@@ -296,7 +293,7 @@ func satLineApprox(s float64) float64 {
 	switch {
 	case s <= 3.778281340:
 		return if97.SatLiquidEnthalpy1FromS(s)
-	case s <= sCrit:
+	case s <= if97.Sc:
 		return if97.SatLiquidEnthalpy3FromS(s)
 	case s <= 5.85:
 		return if97.SatVapourEnthalpy2c3bFromS(s)

@@ -14,11 +14,6 @@ package if97
 // edition of SR3-03; the equation number named beside each table identifies
 // it without doubt.
 
-// bw3CriticalEntropy is the specific entropy at the critical point, kJ/(kg·K),
-// that splits subregions 3a and 3b in the (p,s) equations
-// (IAPWS SR3-03(2014), section 3.3; also SR4-04(2014), section 3.1).
-const bw3CriticalEntropy = 4.41202148223476
-
 // IAPWS SR3-03(2014), Table 2: coefficients n1..n4 of the boundary equation
 // h3ab(p), Eq. 1.
 var bw3H3ab = [4]float64{
@@ -452,7 +447,7 @@ func bw3V3bPSRaw(pi, sigma float64) float64 {
 //
 // Source: IAPWS SR3-03(2014), Eq. 6 (3a, Table 10) and Eq. 7 (3b, Table 11).
 func Region3TFromPS(p, s float64) float64 {
-	if s <= bw3CriticalEntropy {
+	if s <= Sc {
 		// Eq. 6, subregion 3a.
 		return 760 * bw3T3aPSRaw(p/100, s/4.4)
 	}
@@ -470,7 +465,7 @@ func Region3TFromPS(p, s float64) float64 {
 //
 // Source: IAPWS SR3-03(2014), Eq. 8 (3a, Table 13) and Eq. 9 (3b, Table 14).
 func Region3VFromPS(p, s float64) float64 {
-	if s <= bw3CriticalEntropy {
+	if s <= Sc {
 		// Eq. 8, subregion 3a.
 		return 0.0028 * bw3V3aPSRaw(p/100, s/4.4)
 	}

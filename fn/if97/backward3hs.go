@@ -305,7 +305,7 @@ func bw3P3bHSRaw(eta, sigma float64) float64 {
 //
 // Source: IAPWS SR4-04(2014), Eq. 1 (3a, Table 3) and Eq. 2 (3b, Table 4).
 func Region3PFromHS(h, s float64) float64 {
-	if s <= bw3CriticalEntropy {
+	if s <= Sc {
 		// Eq. 1, subregion 3a.
 		return 99 * bw3P3aHSRaw(h/2300, s/4.4)
 	}

@@ -10,6 +10,10 @@ const (
 	Pc = 22.064
 	// Rhoc is the critical density, kg/m³ (R7-97(2012), Eq. 4).
 	Rhoc = 322.0
+	// Sc is the specific entropy at the critical point, kJ/(kg·K), which
+	// splits sub-regions 3a and 3b of the backward equations (IAPWS
+	// SR3-03(2014) section 3.3; SR4-04(2014) section 3.1).
+	Sc = 4.41202148223476
 	// Tt is the triple-point temperature, K (R7-97(2012), section 5).
 	Tt = 273.16
 	// Pt is the triple-point pressure, MPa: 611.657 Pa, the value adopted by

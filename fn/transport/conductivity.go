@@ -57,12 +57,7 @@ func conductivityResidual(tau, delta float64) float64 {
 	x, y := 1/tau-1, delta-1
 	sum := 0.0
 	for i := len(conductivityL1) - 1; i >= 0; i-- {
-		row := conductivityL1[i]
-		inner := 0.0
-		for j := len(row) - 1; j >= 0; j-- {
-			inner = inner*y + row[j]
-		}
-		sum = sum*x + inner
+		sum = sum*x + horner(conductivityL1[i][:], y)
 	}
 	return math.Exp(delta * sum)
 }

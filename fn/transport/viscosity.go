@@ -73,12 +73,7 @@ func viscosityResidual(tau, delta float64) float64 {
 	x, y := 1/tau-1, delta-1
 	sum := 0.0
 	for i := len(viscosityH1) - 1; i >= 0; i-- {
-		row := viscosityH1[i]
-		inner := 0.0
-		for j := len(row) - 1; j >= 0; j-- {
-			inner = inner*y + row[j]
-		}
-		sum = sum*x + inner
+		sum = sum*x + horner(viscosityH1[i][:], y)
 	}
 	return math.Exp(delta * sum)
 }
@@ -222,4 +217,14 @@ func Viscosity(rho, T float64, nc NearCritical) (float64, error) {
 func viscosity(tau, delta float64, nc NearCritical) float64 {
 	mu2 := viscosityCritical(nc.xi(tau, delta))
 	return muStar * viscosityDilute(tau) * viscosityResidual(tau, delta) * mu2
+}
+
+// horner returns Σ_j c_j y^j for the coefficients c of one row of a
+// double-sum table (R12-08 Table 2, R15-11 Table 2), by Horner's rule.
+func horner(c []float64, y float64) float64 {
+	v := 0.0
+	for j := len(c) - 1; j >= 0; j-- {
+		v = v*y + c[j]
+	}
+	return v
 }

@@ -13,35 +13,33 @@ type Set struct {
 	units [numDims]uint8 // 1 + index into registry[d].units; 0: as in the default set
 }
 
+// siUnits are the units of the default set "si"; "si-mpa" and "bar" are
+// the same but for pressure.
+var siUnits = [numDims]string{
+	Pressure: "kPa", Temperature: "°C", SpecificEnergy: "kJ/kg", SpecificEntropy: "kJ/(kg·K)",
+	SpecificVolume: "m³/kg", Density: "kg/m³", Speed: "m/s",
+	// µPa·s and mm²/s put water and steam viscosities at plain
+	// numbers (about 10 to 1800 µPa·s; 0.1 to a few hundred mm²/s
+	// at plant pressures) instead of powers of ten.
+	DynamicViscosity: "µPa·s", ThermalConductivity: "W/(m·K)", SurfaceTension: "mN/m",
+	Quality: "", KinematicViscosity: "mm²/s", ThermalDiffusivity: "mm²/s",
+	InverseTemperature: "1/K", InversePressure: "1/kPa", Dimensionless: "",
+}
+
+// withPressure returns units with pressure (and its inverse) replaced.
+func withPressure(units [numDims]string, p, inverse string) [numDims]string {
+	units[Pressure], units[InversePressure] = p, inverse
+	return units
+}
+
 // setSpecs are the named unit sets, by quantity. The default is "si".
 var setSpecs = []struct {
 	name  string
 	units [numDims]string
 }{
-	{"si", [numDims]string{
-		Pressure: "kPa", Temperature: "°C", SpecificEnergy: "kJ/kg", SpecificEntropy: "kJ/(kg·K)",
-		SpecificVolume: "m³/kg", Density: "kg/m³", Speed: "m/s",
-		// µPa·s and mm²/s put water and steam viscosities at plain
-		// numbers (about 10 to 1800 µPa·s; 0.1 to a few hundred mm²/s
-		// at plant pressures) instead of powers of ten.
-		DynamicViscosity: "µPa·s", ThermalConductivity: "W/(m·K)", SurfaceTension: "mN/m",
-		Quality: "", KinematicViscosity: "mm²/s", ThermalDiffusivity: "mm²/s",
-		InverseTemperature: "1/K", InversePressure: "1/kPa", Dimensionless: "",
-	}},
-	{"si-mpa", [numDims]string{
-		Pressure: "MPa", Temperature: "°C", SpecificEnergy: "kJ/kg", SpecificEntropy: "kJ/(kg·K)",
-		SpecificVolume: "m³/kg", Density: "kg/m³", Speed: "m/s",
-		DynamicViscosity: "µPa·s", ThermalConductivity: "W/(m·K)", SurfaceTension: "mN/m",
-		Quality: "", KinematicViscosity: "mm²/s", ThermalDiffusivity: "mm²/s",
-		InverseTemperature: "1/K", InversePressure: "1/MPa", Dimensionless: "",
-	}},
-	{"bar", [numDims]string{
-		Pressure: "bar", Temperature: "°C", SpecificEnergy: "kJ/kg", SpecificEntropy: "kJ/(kg·K)",
-		SpecificVolume: "m³/kg", Density: "kg/m³", Speed: "m/s",
-		DynamicViscosity: "µPa·s", ThermalConductivity: "W/(m·K)", SurfaceTension: "mN/m",
-		Quality: "", KinematicViscosity: "mm²/s", ThermalDiffusivity: "mm²/s",
-		InverseTemperature: "1/K", InversePressure: "1/bar", Dimensionless: "",
-	}},
+	{"si", siUnits},
+	{"si-mpa", withPressure(siUnits, "MPa", "1/MPa")},
+	{"bar", withPressure(siUnits, "bar", "1/bar")},
 	{"us", [numDims]string{
 		Pressure: "psia", Temperature: "°F", SpecificEnergy: "Btu/lb", SpecificEntropy: "Btu/(lb·°R)",
 		SpecificVolume: "ft³/lb", Density: "lb/ft³", Speed: "ft/s",
