@@ -59,7 +59,11 @@ func fromPQ(p float64, in Input) (State, error) {
 	}
 	liquidFirst := q == Enthalpy && val < 1500 || q == Entropy && val < 3.5
 	switch {
-	case p >= PMinSat && p <= P13Sat:
+	case p < PMinSat: // below the triple-point pressure: vapour only
+		if st, ok := tryVapourAtP(p, q, val, TMin); ok {
+			return st, nil
+		}
+	case p <= P13Sat:
 		ts := if97.SatTemperature(p)
 		for i := 0; i < 2; i++ {
 			if liquidFirst == (i == 0) {
@@ -108,8 +112,9 @@ func tryVapourAtP(p float64, q Quantity, val, tLo float64) (State, bool) {
 
 // tryVapourAtPFrom is tryVapourAtP from region 2's backward estimate t0.
 func tryVapourAtPFrom(p float64, q Quantity, val, tLo, t0 float64) (State, bool) {
-	if t0 > TMax+50 && p <= PMaxHigh {
-		// Far above region 2: region 5 straight from the backward estimate.
+	if t0 > TMax && p <= PMaxHigh {
+		// Above region 2: region 5 straight from the backward estimate
+		// (if the answer lies below 1073.15 K after all, region 2 follows).
 		t5 := quickSteps(5, p, q, val, math.Min(t0, TMaxHigh))
 		if pr, ok := newton1n(5, q, val, p, t5, true, 12); ok && pr.T > TMax && pr.T <= TMaxHigh {
 			return singleState(5, pr), true
@@ -243,7 +248,18 @@ func solveAtP(r int, p float64, q Quantity, val, tLo, tHi float64) (if97.Props, 
 
 // backwardT returns the backward-equation estimate of T from (p, h) or
 // (p, s) in regions 1 and 2 (R7-97(2012) Eqs. 11, 13, 22–27), or NaN.
+//
+// Below the triple-point pressure the region-2 equation T(p,s) loses
+// accuracy (10–30 K at 10 Pa), while the vapour is an ideal gas to a few
+// parts in 10⁴, where s(p, T) = s(pt, T) − R ln(p/pt). There the estimate is
+// taken at pt with s shifted by R ln(p/pt), which puts it within about
+// 0.2 K; the steps on the forward equation at the true p then make it exact.
+// (T(p,h) keeps its accuracy there.)
 func backwardT(r int, p float64, q Quantity, val float64) float64 {
+	if r == 2 && q == Entropy && p < PMinSat {
+		val += if97.R * math.Log(p/PMinSat)
+		p = PMinSat
+	}
 	switch {
 	case r == 1 && q == Enthalpy:
 		return if97.Region1TFromPH(p, val)
@@ -365,13 +381,14 @@ func region3SideOK(pr *if97.Props, p float64) bool {
 	return pr.Rho > rl*1.001 || pr.Rho < rv*0.999
 }
 
-// quickSteps takes Newton steps on h, s and cp alone (if97.Region1HSCp and
-// its kin, about 60 % of the cost of the full property set) from the
-// estimate t0 of T at pressure p in Gibbs region r: one step takes a
-// backward equation's estimate, within 25 mK, to within about 1e-6 K, so
-// that the full solve that follows usually stops at its first evaluation;
-// after a step larger than 0.05 K (a start rougher than a backward
-// equation's) it steps again, up to four times.
+// quickSteps takes Halley steps on h, s, cp and dcp/dT alone
+// (if97.Region1HSCp and its kin, about two thirds of the cost of the full
+// property set) from the estimate t0 of T at pressure p in Gibbs region r:
+// one step takes a backward equation's estimate, within 25 mK, to within
+// rounding, and a start within 0.5 K to well inside the solve's tolerance,
+// so that the full solve that follows usually stops at its first
+// evaluation; after a step larger than 0.5 K (a start rougher than that) it
+// steps again, up to four times.
 func quickSteps(r int, p float64, q Quantity, val, t0 float64) float64 {
 	if q != Enthalpy && q != Entropy {
 		return t0
@@ -406,7 +423,7 @@ func quickSteps(r int, p float64, q Quantity, val, t0 float64) float64 {
 		// Keep a wild step from a start outside the region inside reason.
 		step = math.Max(-t0/3, math.Min(t0/3, step))
 		t0 -= step
-		if math.Abs(step) < 0.05 {
+		if math.Abs(step) < 0.5 {
 			break
 		}
 	}

@@ -48,22 +48,44 @@ func quickHSCp(T, tau, g, gt, gtt, gttt float64) (h, s, cp, dcp float64) {
 }
 
 // regPolySumB returns Σ n·a^I·b^J over rows and its first three
-// derivatives in b only.
+// derivatives in b only, summed as regPolySum does (one power of b a row,
+// the exponent factors, and the powers of 1/b at the end).
 func regPolySumB(rows []term, a, b float64) (f, fb, fbb, fbbb float64) {
+	if b == 0 {
+		return regPolySumBZero(rows, a)
+	}
+	var sb, sbb, sbbb float64
+	lastI, aI := 0, 1.0
 	for _, r := range rows {
-		a0 := powi(a, r.I)
-		b0, b1, b2 := regPowDerivs(b, r.J)
-		k := float64(r.J)
-		var b3 float64
-		if b != 0 {
-			b3 = b2 * (k - 2) / b
-		} else if r.J == 3 {
-			b3 = 6
+		if r.I != lastI {
+			lastI, aI = r.I, powi(a, r.I)
 		}
-		f += r.n * a0 * b0
-		fb += r.n * a0 * b1
-		fbb += r.n * a0 * b2
-		fbbb += r.n * a0 * b3
+		t := r.n * aI * powi(b, r.J)
+		j := float64(r.J)
+		f += t
+		sb += j * t
+		sbb += j * (j - 1) * t
+		sbbb += j * (j - 1) * (j - 2) * t
+	}
+	ib := 1 / b
+	return f, sb * ib, sbb * ib * ib, sbbb * ib * ib * ib
+}
+
+// regPolySumBZero is regPolySumB at b = 0, where only the rows with J ≤ 3
+// count: the derivative of order J of b^J is J! there.
+func regPolySumBZero(rows []term, a float64) (f, fb, fbb, fbbb float64) {
+	for _, r := range rows {
+		na := r.n * powi(a, r.I)
+		switch r.J {
+		case 0:
+			f += na
+		case 1:
+			fb += na
+		case 2:
+			fbb += 2 * na
+		case 3:
+			fbbb += 6 * na
+		}
 	}
 	return f, fb, fbb, fbbb
 }

@@ -1,7 +1,9 @@
 package if97
 
 import (
+	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -67,3 +69,53 @@ func BenchmarkRegion2HSCp(b *testing.B) {
 }
 
 var quickSink float64
+
+// regPolySum and regPolySumB divide the summed exponent factors by powers
+// of a and b; regPolySumZero and regPolySumBZero sum the derivatives term by
+// term. Identity check (the same sums in another order, so to rounding:
+// 1e-13 of the sum of the terms' magnitudes, which is what rounding scales
+// with when terms cancel): both ways agree for every table of the forward
+// equations, and close to b = 0 the factored sums approach the b = 0 values.
+func TestFactoredSumsMatchTermByTerm(t *testing.T) {
+	tables := map[string][]term{
+		"region 1": r1Coef[:], "region 2 residual": r2ResidualCoef[:], "region 2 ideal": r2IdealCoef[:],
+		"region 3": r3Coef[:], "region 5 residual": r5ResidualCoef[:], "region 5 ideal": r5IdealCoef[:],
+	}
+	rng := rand.New(rand.NewPCG(21, 22))
+	for name, rows := range tables {
+		abs := make([]term, len(rows)) // the same terms with |n|: for a, b > 0 their sums are the magnitudes
+		for k, r := range rows {
+			abs[k] = term{r.I, r.J, math.Abs(r.n)}
+		}
+		for i := 0; i < 200; i++ {
+			a, b := 0.2+rng.Float64()*4, 0.2+rng.Float64()*2
+			f, z, m := regPolySum(rows, a, b), regPolySumZero(rows, a, b), regPolySumZero(abs, a, b)
+			g, gb, gbb, _ := regPolySumB(rows, a, b)
+			for _, c := range []struct {
+				what           string
+				got, want, mag float64
+			}{
+				{"f", f.f, z.f, m.f}, {"fa", f.fa, z.fa, math.Abs(m.fa)}, {"faa", f.faa, z.faa, math.Abs(m.faa)},
+				{"fb", f.fb, z.fb, math.Abs(m.fb)}, {"fbb", f.fbb, z.fbb, math.Abs(m.fbb)}, {"fab", f.fab, z.fab, math.Abs(m.fab)},
+				{"B f", g, z.f, m.f}, {"B fb", gb, z.fb, math.Abs(m.fb)}, {"B fbb", gbb, z.fbb, math.Abs(m.fbb)},
+			} {
+				if math.Abs(c.got-c.want) > 1e-13*c.mag+1e-300 {
+					t.Fatalf("%s at a=%g, b=%g: %s factored %g, term by term %g (magnitude %g)", name, a, b, c.what, c.got, c.want, c.mag)
+				}
+			}
+		}
+		// The zero branches and the limit b → 0, for the tables without
+		// negative powers of b (in use: region 2's residual part at 1080 K).
+		if slices.ContainsFunc(rows, func(r term) bool { return r.J < 0 }) {
+			continue
+		}
+		a := 0.7
+		f0, fb0, fbb0, fbbb0 := regPolySumB(rows, a, 0)
+		f1, fb1, fbb1, fbbb1 := regPolySumB(rows, a, 1e-9)
+		d0, d1 := regPolySum(rows, a, 0), regPolySum(rows, a, 1e-9)
+		close := func(x, y float64) bool { return scalar.EqualWithinAbsOrRel(x, y, 1e-6, 1e-6) }
+		if !close(f0, f1) || !close(fb0, fb1) || !close(fbb0, fbb1) || !close(fbbb0, fbbb1) || !close(d0.fb, d1.fb) || !close(d0.fbb, d1.fbb) || !close(d0.fab, d1.fab) {
+			t.Errorf("%s: at b = 0 (%g %g %g %g, %+v) and b = 1e-9 (%g %g %g %g, %+v) differ", name, f0, fb0, fbb0, fbbb0, d0, f1, fb1, fbb1, fbbb1, d1)
+		}
+	}
+}

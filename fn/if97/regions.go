@@ -22,7 +22,38 @@ func (d regDerivs) plus(e regDerivs) regDerivs {
 }
 
 // regPolySum returns Σ n·a^I·b^J over rows, with its derivatives in a and b.
+//
+// Each derivative is a sum of the same terms t = n·a^I·b^J with a factor
+// from the exponents, divided by a power of a or b: ∂f/∂a = Σ I·t / a,
+// ∂²f/∂a² = Σ I(I−1)·t / a², and so on. So each row costs one power of b
+// (and one of a where I changes: the tables are ordered by I) and a few
+// multiplications. Where a or b is exactly zero (a division would fail)
+// regPolySumZero sums the derivative terms one by one.
 func regPolySum(rows []term, a, b float64) regDerivs {
+	if a == 0 || b == 0 {
+		return regPolySumZero(rows, a, b)
+	}
+	var f, sa, saa, sb, sbb, sab float64
+	lastI, aI := 0, 1.0
+	for _, r := range rows {
+		if r.I != lastI {
+			lastI, aI = r.I, powi(a, r.I)
+		}
+		t := r.n * aI * powi(b, r.J)
+		i, j := float64(r.I), float64(r.J)
+		f += t
+		sa += i * t
+		saa += i * (i - 1) * t
+		sb += j * t
+		sbb += j * (j - 1) * t
+		sab += i * j * t
+	}
+	ia, ib := 1/a, 1/b
+	return regDerivs{f, sa * ia, saa * ia * ia, sb * ib, sbb * ib * ib, sab * ia * ib}
+}
+
+// regPolySumZero is regPolySum term by term, for a or b exactly zero.
+func regPolySumZero(rows []term, a, b float64) regDerivs {
 	var d regDerivs
 	for _, r := range rows {
 		a0, a1, a2 := regPowDerivs(a, r.I)
@@ -75,8 +106,12 @@ func powi(x float64, k int) float64 {
 // SR4-04, SR5-05).
 func termSum(rows []term, a, b float64) float64 {
 	var sum float64
+	lastI, aI := 0, 1.0
 	for _, r := range rows {
-		sum += r.n * powi(a, r.I) * powi(b, r.J)
+		if r.I != lastI { // most tables are ordered by I: one power of a per value of I
+			lastI, aI = r.I, powi(a, r.I)
+		}
+		sum += r.n * aI * powi(b, r.J)
 	}
 	return sum
 }
