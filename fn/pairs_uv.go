@@ -100,10 +100,24 @@ func fastUV(u, v float64) (State, bool) {
 	rho := 1 / v
 	// Region 3 first where the density allows it: at a given density the
 	// solve is for T alone, cheap even when it lands outside region 3.
-	if rho > 100 && rho < 800 {
+	if rho > 60 && rho < 800 {
 		pr, ok := newton1n(3, InternalEnergy, u, rho, 700, true, 20)
-		if ok && if97.RegionOf(pr.P, pr.T) == 3 && stableRegion3(&pr) {
-			return singleState(3, pr), true
+		if ok {
+			switch if97.RegionOf(pr.P, pr.T) {
+			case 3:
+				if stableRegion3(&pr) {
+					return singleState(3, pr), true
+				}
+			case 2:
+				// Dense vapour just below the B23 line: the region-3
+				// equation, continued a little past its boundary, lands
+				// close to region 2's answer (the two agree on the
+				// boundary), a far better start than the ideal gas.
+				pr2, ok := newton2n(2, Volume, v, InternalEnergy, u, pr.P, pr.T, 20, 1)
+				if st, ok := accept(2, pr2, ok); ok {
+					return st, true
+				}
+			}
 		}
 	}
 	if v < 0.0017 { // liquid-like: region 1 from cp ≈ 4.2 kJ/(kg·K)
