@@ -168,6 +168,14 @@ func newton2n(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T floa
 		if lam == 1 && math.Abs(da) <= 1e-14*math.Abs(a) && math.Abs(dT) <= 1e-14*T {
 			return pr, true // the step is below rounding: no better point exists
 		}
+		if lam == 1 && math.Abs(e1) <= tol1/tolFactor && math.Abs(e2) <= tol2/tolFactor &&
+			math.Abs(da) <= 1e-10*math.Abs(a) && math.Abs(dT) <= 1e-13*T {
+			// Within the plain tolerance and the steps are down to the
+			// rounding of the values (near 273 K, h and s are sums that
+			// cancel to a few kJ/kg and hundredths of kJ/(kg·K)): a is
+			// pinned to 1e-10, which is all the tighter tolerance asks.
+			return pr, true
+		}
 		a += lam * da
 		T += lam * dT
 	}

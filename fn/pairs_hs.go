@@ -145,16 +145,20 @@ func twoPhaseHS(h, s float64) (State, bool, error) {
 
 // regionOrderHS returns the single-phase regions to try for (h, s), the
 // likeliest first.
-func regionOrderHS(h, s float64) []int {
+func regionOrderHS(h, s float64) [4]int {
 	switch {
+	case s <= 3.778281340 && s >= 3.397782955 && h > if97.B13Enthalpy(s):
+		// Above the boundary of regions 1 and 3 (SR4-04(2014) Eq. 7, valid
+		// from s(100 MPa, 623.15 K) to s'(623.15 K)).
+		return [4]int{3, 1, 2, 5}
 	case s <= 3.778281340: // s'(623.15 K), SR4-04(2014) section 4.3
-		return []int{1, 3, 2, 5}
+		return [4]int{1, 3, 2, 5}
 	case s <= 5.210887825: // s''(623.15 K), SR4-04(2014) section 4.3
-		return []int{3, 2, 1, 5}
+		return [4]int{3, 2, 1, 5}
 	case h > 4200: // above region 2's highest enthalpy (at 1073.15 K, low p)
-		return []int{5, 2, 3, 1}
+		return [4]int{5, 2, 3, 1}
 	}
-	return []int{2, 3, 5, 1}
+	return [4]int{2, 3, 5, 1}
 }
 
 // solveHS solves (h, s) in region r by Newton steps from the backward

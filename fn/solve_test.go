@@ -181,3 +181,28 @@ func TestRegion3SideRejectsWetStates(t *testing.T) {
 		}
 	}
 }
+
+// Cold liquid near 273 K: h and s hardly depend on p there, and both are
+// small sums of large terms, so the (h, s) Newton solve in region 1 must
+// stop at the rounding of h and s while still pinning p. Identity check
+// (the pair must invert FromPT, p to 1e-9 relative: common practice, no
+// source), and the solve in region 1 itself must succeed (the bracketed
+// fallback would also find p, at a hundred times the cost).
+func TestColdLiquidHSPinsPressure(t *testing.T) {
+	for _, T := range []float64{273.16, 273.2, 273.34033753545947, 274, 277.13, 280} {
+		for _, p := range []float64{0.002, 0.006658550726334081, 0.05, 0.3, 2, 20} {
+			want, err := FromPT(p, T)
+			if err != nil || want.Region != 1 {
+				continue
+			}
+			r, pr, ok := solveHS(1, want.H, want.S)
+			if !ok || r != 1 {
+				t.Errorf("p=%g MPa, T=%g K: the region-1 (h,s) solve failed (ended at p=%g, T=%g)", p, T, pr.P, pr.T)
+				continue
+			}
+			if !scalar.EqualWithinRel(pr.P, p, 1e-9) || !scalar.EqualWithinRel(pr.T, T, 1e-12) {
+				t.Errorf("p=%g MPa, T=%g K: (h,s) gave p=%.12g, T=%.15g", p, T, pr.P, pr.T)
+			}
+		}
+	}
+}
