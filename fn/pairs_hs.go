@@ -184,14 +184,7 @@ func solveHS(r int, h, s float64) (int, if97.Props, bool) {
 			a = math.Max(a, 1.0001*ps)
 		}
 	case 2:
-		if s >= 5.85 && h > if97.B2abEnthalpy(s) {
-			// Sub-region 2b: SR2-01's Eq. 4 is not in this code (see
-			// if97.Region2PFromHS); Newton steps from 20 MPa get there
-			// as fast as its stand-in would.
-			a = 20
-		} else {
-			a = if97.Region2PFromHS(h, s)
-		}
+		a = if97.Region2PFromHS(h, s)
 		T = if97.Region2TFromPH(a, h)
 	case 3:
 		p := if97.Region3PFromHS(h, s)

@@ -1,7 +1,5 @@
 package if97
 
-import "math"
-
 // Coefficients of the backward equation p(h,s) for region 1.
 // IAPWS SR2-01(2014), Table 2 (Eq. 1).
 var bw12Region1PHS = [19]term{
@@ -67,6 +65,44 @@ var bw12Region2aPHS = [29]term{
 	{5, 16, -0.633207286824489e4},
 	{6, 3, -0.558919224465760e1},
 	{7, 1, 0.400645798472063e-1},
+}
+
+// Coefficients of the backward equation p(h,s) for sub-region 2b.
+// IAPWS SR2-01(2014), Table 7 (Eq. 4).
+var bw12Region2bPHS = [33]term{
+	{0, 0, 0.801496989929495e-1},
+	{0, 1, -0.543862807146111},
+	{0, 2, 0.337455597421283},
+	{0, 4, 0.890555451157450e1},
+	{0, 8, 0.313840736431485e3},
+	{1, 0, 0.797367065977789},
+	{1, 1, -0.121616973556240e1},
+	{1, 2, 0.872803386937477e1},
+	{1, 3, -0.169769781757602e2},
+	{1, 5, -0.186552827328416e3},
+	{1, 12, 0.951159274344237e5},
+	{2, 1, -0.189168510120494e2},
+	{2, 6, -0.433407037194840e4},
+	{2, 18, 0.543212633012715e9},
+	{3, 0, 0.144793408386013},
+	{3, 1, 0.128024559637516e3},
+	{3, 7, -0.672309534071268e5},
+	{3, 12, 0.336972380095287e8},
+	{4, 1, -0.586634196762720e3},
+	{4, 16, -0.221403224769889e11},
+	{5, 1, 0.171606668708389e4},
+	{5, 12, -0.570817595806302e9},
+	{6, 1, -0.312109693178482e4},
+	{6, 8, -0.207841384633010e7},
+	{6, 18, 0.305605946157786e13},
+	{7, 1, 0.322157004314333e4},
+	{7, 16, 0.326810259797295e12},
+	{8, 1, -0.144104158934487e4},
+	{8, 3, 0.410694867802691e3},
+	{8, 14, 0.109077066873024e12},
+	{8, 18, -0.247964654258893e14},
+	{12, 10, 0.188801906865134e10},
+	{14, 16, -0.123651009018773e15},
 }
 
 // Coefficients of the backward equation p(h,s) for sub-region 2c.
@@ -145,31 +181,26 @@ func B2abEnthalpy(s float64) float64 {
 //	2a (h ≤ B2abEnthalpy(s)):           pi = [Σ n_i (eta - 0.5)^I_i (sigma - 1.2)^J_i]^4,
 //	                                    pi = p/4 MPa, eta = h/4200 kJ/kg, sigma = s/12 kJ/(kg·K),
 //	                                    Eq. 3, Table 6;
-//	2b (h > B2abEnthalpy(s), s ≥ 5.85): solved from the basic equation Region2,
-//	                                    see below;
+//	2b (h > B2abEnthalpy(s), s ≥ 5.85): pi = [Σ n_i (eta - 0.6)^I_i (sigma - 1.01)^J_i]^4,
+//	                                    pi = p/100 MPa, eta = h/4100 kJ/kg, sigma = s/7.9 kJ/(kg·K),
+//	                                    Eq. 4, Table 7;
 //	2c (h > B2abEnthalpy(s), s < 5.85): pi = [Σ n_i (eta - 0.7)^I_i (sigma - 1.1)^J_i]^4,
 //	                                    pi = p/100 MPa, eta = h/3500 kJ/kg, sigma = s/5.9 kJ/(kg·K),
 //	                                    Eq. 5, Table 8.
 //
 // Valid in region 2 (saturated vapour up to 1073.15 K, 0 < p ≤ 100 MPa, without
-// the metastable part), where 2a agrees with the basic equation Region2 within
-// |Δp/p| = 0.0035 % and 2c within 0.0088 %. Inputs outside region 2 are
-// evaluated without check and give meaningless values.
-//
-// Sub-region 2b departs from the release: of the 33 coefficients of its Eq. 4
-// (Table 7) only the first five could be recalled here (the exponents are
-// known), so the pressure is found by Newton
-// iteration on the basic equation Region2 (R7-97(2012), Eq. 15). The result
-// satisfies h and s to round-off, which is closer to Region2 than Eq. 4 is,
-// but differs from the values printed in SR2-01 Table 9 by up to the
-// inconsistency the release permits for Eq. 4.
+// the metastable part), where 2a agrees with the basic equation Region2
+// within |Δp/p| = 0.0035 %, 2b within 0.0019 % and 2c within 0.0088 %.
+// Inputs outside region 2 are evaluated without check and give meaningless
+// values.
 func Region2PFromHS(h, s float64) float64 {
 	switch {
 	case h <= B2abEnthalpy(s): // Eq. 3
 		pi := termSum(bw12Region2aPHS[:], h/4200-0.5, s/12-1.2)
 		return 4 * bw12Sq(bw12Sq(pi))
-	case s >= bw12Region2bcEntropy:
-		return bw12Region2bPressureHS(h, s)
+	case s >= bw12Region2bcEntropy: // Eq. 4
+		pi := termSum(bw12Region2bPHS[:], h/4100-0.6, s/7.9-1.01)
+		return 100 * bw12Sq(bw12Sq(pi))
 	default: // Eq. 5
 		pi := termSum(bw12Region2cPHS[:], h/3500-0.7, s/5.9-1.1)
 		return 100 * bw12Sq(bw12Sq(pi))
@@ -178,56 +209,3 @@ func Region2PFromHS(h, s float64) float64 {
 
 // bw12Sq returns x².
 func bw12Sq(x float64) float64 { return x * x }
-
-// bw12Region2bPressureHS returns the pressure, MPa, of a state of sub-region
-// 2b of the backward equations p(h,s) (p > 4 MPa, s ≥ 5.85 kJ/(kg·K)) with
-// specific enthalpy h, kJ/kg, and specific entropy s, kJ/(kg·K), by solving
-// h(p,T) = h, s(p,T) = s with the basic equation Region2.
-//
-// First Newton steps in ln p on s(p, T(p,h)) = s, with T(p,h) from
-// Region2TFromPH and the slope (∂s/∂ln p)_h = −p v/T; then full Newton steps
-// in (p,T) on both equations, with dh = cp dT + v(1 − T alphaV) dp and
-// ds = (cp/T) dT − v alphaV dp, until the steps fall below 1e-13 relative
-// or 20 steps are done (then the result is settled to round-off). It returns
-// NaN if the iteration leaves the positive pressures, as it does for a NaN
-// input.
-func bw12Region2bPressureHS(h, s float64) float64 {
-	const (
-		kPa   = 1e3 // kJ/kg per (m³/kg · MPa)
-		relTo = 1e-13
-	)
-	p := 20.0
-	for range 50 {
-		T := Region2TFromPH(p, h)
-		st := Region2(p, T)
-		slope := -p * st.V * kPa / T // (∂s/∂ln p)_h, kJ/(kg·K)
-		step := (s - st.S) / slope
-		step = math.Max(-1, math.Min(1, step))
-		p *= math.Exp(step)
-		if !(p > 0) {
-			return math.NaN()
-		}
-		if math.Abs(step) < 1e-6 {
-			break
-		}
-	}
-	T := Region2TFromPH(p, h)
-	for range 20 {
-		st := Region2(p, T)
-		dh, ds := h-st.H, s-st.S
-		a, b := st.Cp, st.V*(1-T*st.AlphaV)*kPa // ∂h/∂T, ∂h/∂p
-		c, d := st.Cp/T, -st.V*st.AlphaV*kPa    // ∂s/∂T, ∂s/∂p
-		det := a*d - b*c
-		dT := (dh*d - b*ds) / det
-		dp := (a*ds - c*dh) / det
-		T += dT
-		p += dp
-		if !(p > 0) {
-			return math.NaN()
-		}
-		if math.Abs(dp) <= relTo*p && math.Abs(dT) <= relTo*T {
-			return p
-		}
-	}
-	return p
-}
