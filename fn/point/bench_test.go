@@ -37,6 +37,32 @@ func BenchmarkParseTwoValues(b *testing.B) {
 	}
 }
 
+// The same with two units per quantity in turn (two columns of pressure,
+// one in barg and one in psig, read row by row): both stay remembered.
+func BenchmarkParseTwoValuesTwoUnits(b *testing.B) {
+	b.ReportAllocs()
+	ps := [2]string{"6 barg", "87 psig"}
+	ts := [2]string{"330 °C", "626 °F"}
+	for i := 0; i < b.N; i++ {
+		p, _ := units.Parse(ps[i&1], units.Pressure, units.Options{})
+		t, _ := units.Parse(ts[i&1], units.Temperature, units.Options{})
+		sinkF = p + t
+	}
+}
+
+// The worst case: more units per quantity in turn than are remembered, so
+// that every unit is looked up afresh.
+func BenchmarkParseTwoValuesUnitsRotate(b *testing.B) {
+	b.ReportAllocs()
+	ps := [...]string{"6 barg", "87 psig", "700 kPa", "0.7 MPa", "7 bar", "101 psia"}
+	ts := [...]string{"330 °C", "626 °F", "603.15 K", "1085 R", "330 degC", "626 degF"}
+	for i := 0; i < b.N; i++ {
+		p, _ := units.Parse(ps[i%len(ps)], units.Pressure, units.Options{})
+		t, _ := units.Parse(ts[i%len(ts)], units.Temperature, units.Options{})
+		sinkF = p + t
+	}
+}
+
 func BenchmarkStateWithoutTransport(b *testing.B) {
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {

@@ -3,6 +3,7 @@ package units
 import (
 	"math"
 	"strings"
+	"sync/atomic"
 )
 
 // parseFast reads the common shapes of a value quickly: optional spaces, an
@@ -112,7 +113,7 @@ func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
 		}
 		// Spaces after the unit, which parseFull trims, fold away or
 		// leave a byte that no spelling holds, so they change no match.
-		k, _, ok := find(text[i:], d)
+		k, ok := findRecent(text[i:], d)
 		if !ok {
 			return 0, nil, false
 		}
@@ -151,3 +152,58 @@ func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
 // pow10 holds the powers of ten that float64 holds exactly.
 var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
 	1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22}
+
+// recentUnits remembers, per quantity, the last few unit texts parseFast
+// found and their indexes: each column of a sheet or a batch gives the same
+// unit on every row, and comparing the text is cheaper than folding and
+// looking it up again. An entry is replaced whole, never changed, so
+// concurrent readers see one whole entry or another.
+type recentUnit struct {
+	text string // a copy, so the caller's (maybe large) string is not kept alive
+	k    int
+}
+
+// recentSlots is how many unit texts per quantity are remembered: enough
+// for the columns of one quantity that a sheet gives in different units.
+const recentSlots = 4
+
+var (
+	recentUnits [numDims][recentSlots]atomic.Pointer[recentUnit]
+	// recentMiss holds a hash of the last text per quantity that missed:
+	// an entry is made (one allocation) only when the same text misses
+	// twice in a row, so text whose unit changes on every value costs a
+	// hash, not an allocation.
+	recentMiss [numDims]atomic.Uint64
+	// recentNext picks the slot the next entry replaces, in turn.
+	recentNext [numDims]atomic.Uint32
+)
+
+// findRecent is find for parseFast, through recentUnits. Only texts that
+// find accepts are remembered, so a hit gives what find would.
+func findRecent(text string, d Dim) (int, bool) {
+	slots := &recentUnits[d]
+	for j := range slots {
+		if r := slots[j].Load(); r != nil && r.text == text {
+			return r.k, true
+		}
+	}
+	k, _, ok := find(text, d)
+	if ok && len(text) <= maxKey {
+		if h := textHash(text); recentMiss[d].Swap(h) == h {
+			j := recentNext[d].Add(1) % recentSlots
+			slots[j].Store(&recentUnit{text: strings.Clone(text), k: k})
+		}
+	}
+	return k, ok
+}
+
+// textHash is the 64-bit FNV-1a hash of s (a hint only: a collision costs
+// one needless entry, never a wrong unit).
+func textHash(s string) uint64 {
+	h := uint64(14695981039346656037)
+	for i := 0; i < len(s); i++ {
+		h ^= uint64(s[i])
+		h *= 1099511628211
+	}
+	return h
+}

@@ -76,3 +76,36 @@ func BenchmarkParseForms(b *testing.B) {
 		})
 	}
 }
+
+// findRecent gives what find gives, whether the text is the one it
+// remembers or not, for accepted, refused and trap spellings in any order,
+// and from many goroutines at once (run with -race to check the sharing).
+func TestFindRecentMatchesFind(t *testing.T) {
+	texts := []string{"barg", "barg", "kPa", "mPa", "mPa", "MPa", "psig", "psig ", "bar(g)", "°C", "°C", "degC", "K", "", "-", "()", "x"}
+	check := func(t *testing.T, text string, d Dim) {
+		k, _, ok := find(text, d)
+		k2, ok2 := findRecent(text, d)
+		if ok != ok2 || ok && k != k2 {
+			t.Errorf("%s %q: find gives (%d, %v), findRecent (%d, %v)", d, text, k, ok, k2, ok2)
+		}
+	}
+	for range 3 {
+		for _, text := range texts {
+			for d := Pressure; d <= Dimensionless; d++ {
+				check(t, text, d)
+			}
+		}
+	}
+	done := make(chan bool)
+	for g := range 4 {
+		go func() {
+			for i := range 2000 {
+				check(t, texts[(i*(g+1))%len(texts)], Pressure)
+			}
+			done <- true
+		}()
+	}
+	for range 4 {
+		<-done
+	}
+}
