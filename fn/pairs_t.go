@@ -220,6 +220,17 @@ func fromTQ(T float64, in Input) (State, error) {
 	if !ok {
 		return State{}, noConvergence("t," + q.Symbol())
 	}
+	if q == Entropy && T >= tSFallsWithP {
+		if st, ok := fromTSFalling(T, val, bs, sat); ok {
+			return st, nil
+		}
+	}
+	return searchIsotherm(T, q, val, bs, sat)
+}
+
+// searchIsotherm is fromTQ's general search: every stretch of the isotherm
+// sampled, every crossing refined.
+func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Saturation) (State, error) {
 	var found []State
 	if sat != nil {
 		ql, qv := value(q, &sat.Liquid), value(q, &sat.Vapour)
@@ -259,6 +270,58 @@ func fromTQ(T float64, in Input) (State, error) {
 	}
 	return State{}, &InputError{Input: "t," + q.Symbol(), Pair: true, Kind: ErrTwoSolutions, Alternatives: ps,
 		Detail: fmt.Sprintf("at T = %g K, %s = %g %s fits %s; give p instead of T", T, q.Symbol(), val, q.BaseUnit(), strings.Join(alts, " and "))}
+}
+
+// tSFallsWithP is the temperature, K, above which s falls with rising p
+// (and ρ) along the whole isotherm inside IF97's range:
+// (∂s/∂p)_T = −v αv, and αv < 0 only in liquid water colder than its
+// density maximum, 277.13 K at 0.1 MPa and lower at higher pressures
+// (common knowledge of the trade, no source; TestEntropyFallsWithPressure
+// checks αv > 0 on a grid of region 1 from here up).
+const tSFallsWithP = 278.0
+
+// fromTSFalling solves (T, s) where s falls along every stretch of the
+// isotherm (T ≥ tSFallsWithP), so at most one state fits: the mixture if s
+// lies between s' and s'', else the one stretch whose end values enclose
+// s, solved by Brent's method in ln p (or ρ) and polished by Newton steps.
+// It reports false where that does not settle the answer (s outside every
+// stretch, a failed solve), and fromTQ's general search decides.
+func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
+	if sat != nil && val >= sat.Liquid.S && val <= sat.Vapour.S {
+		return mixture(*sat, quality(sat.Liquid.S, sat.Vapour.S, val)), true
+	}
+	for _, b := range bs {
+		f := func(x float64) float64 {
+			a := x
+			if b.log {
+				a = math.Exp(x)
+			}
+			pr := eval(b.r, a, T)
+			return pr.S - val
+		}
+		lo, hi := b.lo, b.hi
+		if b.log {
+			lo, hi = math.Log(lo), math.Log(hi)
+		}
+		flo, fhi := f(lo), f(hi)
+		if !(flo >= 0 && fhi <= 0) {
+			continue // s falls with a: this stretch holds val only if it lies between its end values
+		}
+		x, ok := rootBrent(f, lo, hi, flo, fhi, 1e-12)
+		if !ok {
+			return State{}, false
+		}
+		a := x
+		if b.log {
+			a = math.Exp(x)
+		}
+		pr, ok := newton1n(b.r, Entropy, val, a, T, false, 8)
+		if !ok || !(pr.T == T) || native(b.r, &pr) < b.lo*(1-1e-12) || native(b.r, &pr) > b.hi*(1+1e-12) {
+			return State{}, false
+		}
+		return singleState(b.r, pr), true
+	}
+	return State{}, false
 }
 
 // seen reports whether a state at pressure p is already in found (the same

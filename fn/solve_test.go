@@ -206,3 +206,46 @@ func TestColdLiquidHSPinsPressure(t *testing.T) {
 		}
 	}
 }
+
+// fromTSFalling relies on s falling with p along every isotherm from
+// tSFallsWithP up, i.e. αv > 0 in every single-phase state there (common
+// knowledge of the trade, no source: water's density maximum lies at
+// 277.13 K at 0.1 MPa and lower at higher pressures). Checked on a grid of
+// the whole range, and the quick answer is compared with the general
+// search of the isotherm over random states (identity check).
+func TestEntropyFallsWithPressure(t *testing.T) {
+	for T := tSFallsWithP; T <= TMaxHigh; T++ {
+		for lp := math.Log(1e-6); lp <= math.Log(PMax); lp += 0.1 {
+			st, err := FromPT(math.Exp(lp), T)
+			if err != nil {
+				continue // outside the range, or on the saturation line
+			}
+			if !(st.AlphaV > 0) {
+				t.Fatalf("αv = %g at p = %g MPa, T = %g K: s does not fall with p there", st.AlphaV, st.P, T)
+			}
+		}
+	}
+	rng := rand.New(rand.NewPCG(31, 32))
+	for i := 0; i < 1500; i++ {
+		T := tSFallsWithP + rng.Float64()*(TMaxHigh-tSFallsWithP)
+		s := 3 + rng.Float64()*10
+		if i%3 == 0 {
+			s = rng.Float64() * 7 // liquid and wet states too
+		}
+		bs, sat, ok := isothermBranches(T)
+		if !ok {
+			t.Fatalf("T = %g K: no isotherm", T)
+		}
+		quick, ok := fromTSFalling(T, s, bs, sat)
+		search, err := searchIsotherm(T, Entropy, s, bs, sat)
+		switch {
+		case ok && err != nil:
+			t.Errorf("T = %g K, s = %g: the quick path gives p = %g MPa, the search refuses: %v", T, s, quick.P, err)
+		case !ok && err == nil:
+			t.Errorf("T = %g K, s = %g: the quick path finds nothing, the search p = %g MPa", T, s, search.P)
+		case ok && (!scalar.EqualWithinRel(quick.P, search.P, 1e-9) || quick.HasX != search.HasX ||
+			quick.HasX && !scalar.EqualWithinAbs(quick.X, search.X, 1e-9)):
+			t.Errorf("T = %g K, s = %g: quick p = %.10g MPa (x %v %g), search p = %.10g MPa (x %v %g)", T, s, quick.P, quick.HasX, quick.X, search.P, search.HasX, search.X)
+		}
+	}
+}
