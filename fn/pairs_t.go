@@ -282,7 +282,7 @@ const tSFallsWithP = 278.0
 
 // fromTSFalling solves (T, s) where s falls along every stretch of the
 // isotherm (T ≥ tSFallsWithP), so at most one state fits: the mixture if s
-// lies between s' and s'', else the one stretch whose end values enclose
+// lies between s' and s”, else the one stretch whose end values enclose
 // s, solved by Brent's method in ln p (or ρ) and polished by Newton steps.
 // It reports false where that does not settle the answer (s outside every
 // stretch, a failed solve), and fromTQ's general search decides.
