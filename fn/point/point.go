@@ -99,7 +99,14 @@ type Options struct {
 
 // Read turns exactly two given inputs into the engine's inputs.
 func Read(given []Given, opt Options) ([2]fn.Input, error) {
+	in, _, err := read(given, opt)
+	return in, err
+}
+
+// read is Read that also returns the unit each input was read in.
+func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 	var out [2]fn.Input
+	var us [2]units.Unit
 	if len(given) != 2 {
 		var names []string
 		for _, g := range given {
@@ -109,30 +116,30 @@ func Read(given []Given, opt Options) ([2]fn.Input, error) {
 		if len(names) > 0 {
 			msg += " (" + strings.Join(names, ", ") + ")"
 		}
-		return out, &Error{Kind: ErrInputCount, Msg: msg}
+		return out, us, &Error{Kind: ErrInputCount, Msg: msg}
 	}
 	for i, g := range given {
 		q, ok := InputQuantity(g.Name)
 		if !ok {
-			return out, &Error{Param: g.Name, Kind: ErrUnknownInput,
+			return out, us, &Error{Param: g.Name, Kind: ErrUnknownInput,
 				Msg: fmt.Sprintf("%s is not an input; inputs are %s", quote(g.Name), strings.Join(InputNames(), ", "))}
 		}
-		v, err := units.Parse(g.Text, DimOf(q), units.Options{Name: g.Name, Unit: g.Unit, Set: opt.Set, Patm: opt.Patm})
+		v, u, err := units.ParseUnit(g.Text, DimOf(q), units.Options{Name: g.Name, Unit: g.Unit, Set: opt.Set, Patm: opt.Patm})
 		if err != nil {
-			return out, err
+			return out, us, err
 		}
-		out[i] = fn.Input{Q: q, Value: v}
+		out[i], us[i] = fn.Input{Q: q, Value: v}, u
 	}
 	if out[0].Q == out[1].Q {
-		return out, &Error{Param: given[1].Name, Kind: ErrInputCount,
+		return out, us, &Error{Param: given[1].Name, Kind: ErrInputCount,
 			Msg: fmt.Sprintf("%s and %s are the same property; give two different ones", given[0].Name, given[1].Name)}
 	}
-	return out, nil
+	return out, us, nil
 }
 
 // Solve reads two given inputs and solves the state.
 func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
-	in, err := Read(given, opt)
+	in, us, err := read(given, opt)
 	if err != nil {
 		return fn.State{}, in, err
 	}
@@ -140,10 +147,18 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 	var ie *fn.InputError
 	if errors.As(err, &ie) && !ie.Pair {
 		// The engine speaks in base units; echo the input as the user gave
-		// it, so the message reads in their units too.
+		// it, and the limit in the user's unit, so the message reads in
+		// their units too.
 		for i, g := range given {
 			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
-				err = fmt.Errorf("%w (given as %s=%s)", err, g.Name, strings.TrimSpace(g.Text+" "+g.Unit))
+				echo := "given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit)
+				if u := us[i]; ie.HasLimit && u.Name != ie.Unit && !(u.Name == "" && ie.Unit == "fraction") {
+					echo += "; the limit is " + strconv.FormatFloat(u.FromBase(ie.Limit, opt.Patm), 'g', 8, 64)
+					if u.Name != "" {
+						echo += " " + u.Name
+					}
+				}
+				err = fmt.Errorf("%w (%s)", err, echo)
 				break
 			}
 		}

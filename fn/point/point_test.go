@@ -3,6 +3,7 @@ package point
 import (
 	"encoding/json"
 	"errors"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -50,6 +51,26 @@ func TestReadErrors(t *testing.T) {
 		_, err := Read(tc.given, Options{})
 		if !errors.Is(err, tc.kind) {
 			t.Errorf("Read(%v) error %v, want kind %v", tc.given, err, tc.kind)
+		}
+	}
+}
+
+// An out-of-range input is echoed as given, with the limit in the unit it
+// was given in. Limits from IAPWS R7-97(2012) section 4 (p ≤ 100 MPa,
+// T ≤ 2273.15 K); units by NIST SP 811 (2008) B.8 (1 bar = 0.1 MPa,
+// K = °C + 273.15 exactly).
+func TestOutOfRangeEchoesTheUsersUnit(t *testing.T) {
+	for _, tc := range []struct {
+		given []Given
+		want  string
+	}{
+		{[]Given{{Name: "p", Text: "1200 bar"}, {Name: "t", Text: "300 C"}}, "(given as p=1200 bar; the limit is 1000 bar)"},
+		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "3300", Unit: "°C"}}, "(given as t=3300 °C; the limit is 2000 °C)"},
+		{[]Given{{Name: "p", Text: "120 MPa"}, {Name: "t", Text: "600 K"}}, "(given as p=120 MPa)"},
+	} {
+		_, _, err := Solve(tc.given, Options{})
+		if !errors.Is(err, fn.ErrOutOfRange) || !strings.HasSuffix(err.Error(), tc.want) {
+			t.Errorf("Solve(%v) error %v, want one of kind %v ending %q", tc.given, err, fn.ErrOutOfRange, tc.want)
 		}
 	}
 }
