@@ -72,7 +72,7 @@ func parseFull(text string, d Dim, opt *Options) (float64, *Unit, error) {
 	if !d.valid() {
 		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrUnknownUnit, Detail: "no quantity given to read the value as"}
 	}
-	num, unitText, kind, detail := splitNumber(text)
+	num, unitText, detail, kind := splitNumber(text)
 	if kind != nil {
 		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: kind, Detail: detail}
 	}
@@ -190,14 +190,14 @@ func pressureError(opt *Options, text string, v float64, u *Unit, patm, b float6
 // accepts and the unit text after it, or reports why the text does not start
 // with a number as the package doc defines it. It allocates only when the
 // number holds a Unicode minus sign.
-func splitNumber(text string) (num, unitText string, kind error, detail string) {
+func splitNumber(text string) (num, unitText, detail string, kind error) {
 	t := strings.TrimSpace(text)
 	if t == "" {
-		return "", "", ErrEmpty, "no value given"
+		return "", "", "no value given", ErrEmpty
 	}
 	if strings.IndexByte(t, ',') >= 0 {
-		return "", "", ErrAmbiguousNumber,
-			"a comma is not read in numbers (thousands separator or decimal comma?): remove thousands separators and write decimals with a point, e.g. 1013.25"
+		return "", "", "a comma is not read in numbers (thousands separator or decimal comma?): remove thousands separators and write decimals with a point, e.g. 1013.25",
+			ErrAmbiguousNumber
 	}
 	i := 0
 	unicodeMinus := false
@@ -210,7 +210,7 @@ func splitNumber(text string) (num, unitText string, kind error, detail string) 
 	}
 	if i > 0 && i < len(t) {
 		if r, _ := utf8.DecodeRuneInString(t[i:]); unicode.IsSpace(r) {
-			return "", "", ErrAmbiguousNumber, "space inside the number: write the sign and digits together"
+			return "", "", "space inside the number: write the sign and digits together", ErrAmbiguousNumber
 		}
 	}
 	start := i
@@ -230,11 +230,11 @@ func splitNumber(text string) (num, unitText string, kind error, detail string) 
 		rest := strings.ToLower(t[start:])
 		switch {
 		case strings.HasPrefix(rest, "nan"), strings.HasPrefix(rest, "inf"), strings.HasPrefix(rest, "∞"):
-			return "", "", ErrNotFinite, "not a finite number"
+			return "", "", "not a finite number", ErrNotFinite
 		case i-start > 0 || start == len(t):
-			return "", "", ErrSyntax, "no digits in the number"
+			return "", "", "no digits in the number", ErrSyntax
 		}
-		return "", "", ErrSyntax, "expected a number first, such as 6, -0.5 or 1.2e3"
+		return "", "", "expected a number first, such as 6, -0.5 or 1.2e3", ErrSyntax
 	}
 	// Exponent: e or E, a sign, digits. Without digits the e starts the unit.
 	if i < len(t) && (t[i] == 'e' || t[i] == 'E') {
@@ -258,8 +258,8 @@ func splitNumber(text string) (num, unitText string, kind error, detail string) 
 		// Digit grouping: 1.013.250, 1'013, 1_000, 1’013.
 		r, size := utf8.DecodeRuneInString(rest)
 		if (r == '.' || r == '\'' || r == '’' || r == '_') && size < len(rest) && isDigit(rest[size]) {
-			return "", "", ErrAmbiguousNumber,
-				fmt.Sprintf("%q after %s looks like a digit-group separator: write the number without separators, with '.' for decimals only", r, num)
+			return "", "", fmt.Sprintf("%q after %s looks like a digit-group separator: write the number without separators, with '.' for decimals only", r, num),
+				ErrAmbiguousNumber
 		}
 	}
 	u := strings.TrimLeftFunc(rest, unicode.IsSpace)
@@ -267,12 +267,12 @@ func splitNumber(text string) (num, unitText string, kind error, detail string) 
 	// starts an inverse unit ("2.1e-4 1/K").
 	if len(u) < len(rest) && u != "" && (isDigit(u[0]) || (u[0] == '.' && len(u) > 1 && isDigit(u[1]))) &&
 		!strings.HasPrefix(u, "1/") {
-		return "", "", ErrAmbiguousNumber, "space inside the number: write digits without spaces (no thousands separators)"
+		return "", "", "space inside the number: write digits without spaces (no thousands separators)", ErrAmbiguousNumber
 	}
 	if unicodeMinus {
 		num = strings.ReplaceAll(num, "−", "-")
 	}
-	return num, u, nil, ""
+	return num, u, "", nil
 }
 
 func isDigit(c byte) bool { return c >= '0' && c <= '9' }
