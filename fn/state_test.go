@@ -16,6 +16,7 @@ import (
 // that and for the tables' rounding: T 0.02 K, p and v 0.05 %, h 0.3 kJ/kg,
 // s 0.0005 kJ/(kg·K).
 func TestHandbookSaturation(t *testing.T) {
+	nan := math.NaN()
 	for _, tc := range []struct {
 		T, p, vf, vg, hf, hg, sf, sg float64 // K, MPa, m³/kg, kJ/kg, kJ/(kg·K)
 	}{
@@ -23,6 +24,10 @@ func TestHandbookSaturation(t *testing.T) {
 		{373.15, 0.101418, 0.0010435, 1.6720, 419.17, 2675.6, 1.3072, 7.3541},  // 100 °C
 		{453.03, 1.0, 0.0011272, 0.19436, 762.52, 2777.1, 2.1381, 6.5850},      // 1 MPa (Ts = 179.88 °C)
 		{584.15, 10.0, 0.0014526, 0.018030, 1407.9, 2725.5, 3.3603, 5.6159},    // 10 MPa (Ts = 311.00 °C)
+		// NaN: a value recalled to four digits only, too coarse for 0.05 %.
+		{323.15, 0.012352, nan, 12.026, 209.34, 2591.3, 0.7038, 8.0748}, // 50 °C
+		{473.15, 1.5549, nan, 0.12721, 852.26, 2792.0, 2.3305, 6.4302},  // 200 °C
+		{573.15, 8.5879, nan, 0.021659, 1344.8, 2749.6, 3.2548, 5.7059}, // 300 °C
 	} {
 		sat, err := SaturationAtT(tc.T)
 		if err != nil {
@@ -30,6 +35,9 @@ func TestHandbookSaturation(t *testing.T) {
 		}
 		check := func(name string, got, want, tol float64, rel bool) {
 			t.Helper()
+			if math.IsNaN(want) {
+				return
+			}
 			ok := scalar.EqualWithinAbs(got, want, tol)
 			if rel {
 				ok = scalar.EqualWithinRel(got, want, tol)
@@ -58,6 +66,10 @@ func TestHandbookSinglePhase(t *testing.T) {
 		{1, 573.15, 0.25799, 3051.6, 7.1246, SuperheatedVapour},   // 1 MPa, 300 °C
 		{10, 773.15, 0.032811, 3375.1, 6.5995, SuperheatedVapour}, // 10 MPa, 500 °C
 		{4, 673.15, 0.07343, 3214.5, 6.7714, SuperheatedVapour},   // 4 MPa, 400 °C
+		{0.1, 473.15, 2.1724, 2875.5, 7.8356, SuperheatedVapour},  // 0.1 MPa, 200 °C
+		{0.5, 573.15, 0.52261, 3064.6, 7.4614, SuperheatedVapour}, // 0.5 MPa, 300 °C
+		{2, 673.15, 0.15122, 3248.4, 7.1292, SuperheatedVapour},   // 2 MPa, 400 °C
+		{5, 373.15, 0.0010410, 422.72, 1.3030, CompressedLiquid},  // 5 MPa, 100 °C
 	} {
 		st, err := FromPT(tc.p, tc.T)
 		if err != nil {
