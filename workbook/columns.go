@@ -107,6 +107,87 @@ func findHeader(top [][]string) (int, []inputCol) {
 	return 0, nil
 }
 
+// unitsBelow reads the row under the header (row header+1, top[header]) as
+// a row of units when the cells under the input columns read as units of
+// their quantities ("Pressure" over "barg", "T" over "[°C]"): it gives
+// those columns their units and returns the row. Cells under input columns
+// may be blank (the header's unit, or the unit set, holds); any other text
+// under an input column means the row is no row of units, and 0 is
+// returned. A unit under a header that names another unit is an error:
+// the sheet says two things.
+func unitsBelow(sheet string, top [][]string, header int, cols []inputCol) (int, error) {
+	if header <= 0 || header >= len(top) {
+		return 0, nil
+	}
+	below := top[header]
+	cell := func(i int) string {
+		if i < len(below) {
+			return unitText(below[i])
+		}
+		return ""
+	}
+	found := false
+	for _, c := range cols {
+		t := cell(c.idx)
+		if t == "" {
+			continue
+		}
+		if _, err := units.Lookup(t, point.DimOf(c.q)); err != nil {
+			return 0, nil
+		}
+		found = true
+	}
+	if !found {
+		return 0, nil
+	}
+	for i := range cols {
+		c := &cols[i]
+		t := cell(c.idx)
+		switch {
+		case t == "":
+		case c.unit == "":
+			c.unit = t
+		default:
+			hu, err1 := units.Lookup(c.unit, point.DimOf(c.q))
+			bu, err2 := units.Lookup(t, point.DimOf(c.q))
+			if err1 != nil || err2 != nil || hu.Name != bu.Name {
+				return 0, &Error{Kind: ErrAmbiguous, Sheet: sheet, Msg: fmt.Sprintf(
+					"sheet %q: the header %s%d %q gives the unit %s, the row of units under it %s; remove one",
+					sheet, c.letter(), header, c.header, c.unit, t)}
+			}
+		}
+	}
+	return header + 1, nil
+}
+
+// unitText returns the text of a cell of a row of units without the
+// brackets that often enclose it ("[barg]", "(°C)"), trimmed.
+func unitText(s string) string {
+	s = strings.TrimSpace(s)
+	if len(s) >= 2 && (s[0] == '[' && s[len(s)-1] == ']' || s[0] == '(' && s[len(s)-1] == ')' && enclosed(s)) {
+		s = strings.TrimSpace(s[1 : len(s)-1])
+	}
+	return s
+}
+
+// enclosed reports whether the '(' that starts s is closed by its last
+// byte, not earlier ("(kg·K)" yes, "(kJ)/(kg·K)" no).
+func enclosed(s string) bool {
+	depth := 0
+	for i := 0; i < len(s); i++ {
+		switch s[i] {
+		case '(':
+			depth++
+		case ')':
+			depth--
+			if depth == 0 && i < len(s)-1 {
+				return false
+			}
+		}
+	}
+	return depth == 0
+}
+
 // pairUp pairs input columns left to right by the rule of the package doc.
 func pairUp(sheet string, row int, cols []inputCol) ([]pairSpec, error) {
 	ok := len(cols) >= 2 && len(cols)%2 == 0

@@ -15,6 +15,14 @@
 // ("Status (steamcell)") are never inputs, so a filled workbook can be
 // filled again: the new results go further right.
 //
+// The units may stand in a row of their own under the header, as many
+// test records print them ("Drum pressure" over "barg", "T" over "[°C]"):
+// when the cells under the input columns read as units of their
+// quantities (blanks allowed), that row gives the units, is not data, and
+// gets the units of the results; a unit there that differs from one in the
+// header above stops the fill (ErrAmbiguous). SheetSummary.UnitRow names
+// the row.
+//
 // The input columns found are paired left to right: the 1st with the 2nd,
 // the 3rd with the 4th, and so on, and every pair must be a pair the
 // engine solves (p,T  p,h  p,s  h,s  p,x  T,x  p,v  T,v  T,h  T,s  u,v,

@@ -406,6 +406,7 @@ type sheetRun struct {
 	*run
 	name      string
 	headerRow int
+	unitRow   int // the row of units under the header, or 0
 	pairs     []pairSpec
 	rows      []dataRow
 	maxCol    int // columns used by the data: results start at this index
@@ -467,7 +468,7 @@ func (s *sheetRun) read() error {
 		}
 		if !decided {
 			top = append(top, cols)
-			if n < max(headerScanRows, s.opt.HeaderRow) {
+			if n < max(headerScanRows, s.opt.HeaderRow+1) { // a row of units may follow the header
 				continue
 			}
 			if err := s.decide(top); err != nil {
@@ -538,6 +539,11 @@ func (s *sheetRun) decide(top [][]string) error {
 			return &Error{Kind: ErrNoInputs, Sheet: s.name, Msg: noInputsMessage(s.name, top)}
 		}
 	}
+	unitRow, err := unitsBelow(s.name, top, s.headerRow, cols)
+	if err != nil {
+		return err
+	}
+	s.unitRow = unitRow
 	pairs, err := pairUp(s.name, s.headerRow, cols)
 	if err != nil {
 		return err
@@ -546,12 +552,16 @@ func (s *sheetRun) decide(top [][]string) error {
 	return nil
 }
 
+// lastHeaderRow is the last row of the header: the row of units under it
+// where there is one.
+func (s *sheetRun) lastHeaderRow() int { return max(s.headerRow, s.unitRow) }
+
 // take keeps row n when it lies below the header and has a cell in an
 // input column: a value, or a formula whose result is not stored (the
 // stream shows it as ""). Rows without inputs are dropped by
 // resolveFormulas.
 func (s *sheetRun) take(n int, cols []string) {
-	if n <= s.headerRow {
+	if n <= s.lastHeaderRow() {
 		return
 	}
 	var vals []string
@@ -674,6 +684,10 @@ func (s *sheetRun) solveAndWrite(ctx context.Context, ss *SheetSummary) error {
 	width := 1 + len(s.outs)
 	nOut := len(s.pairs) * width
 	ss.HeaderRow = s.headerRow
+	ss.UnitRow = s.unitRow
+	if s.unitRow > 0 {
+		ss.Note = joinNote(ss.Note, fmt.Sprintf("units read from row %d, under the header", s.unitRow))
+	}
 	ss.Pairs = make([]Pair, len(s.pairs))
 	for i, p := range s.pairs {
 		pr := &ss.Pairs[i]
@@ -763,7 +777,7 @@ func (s *sheetRun) solveAndWrite(ctx context.Context, ss *SheetSummary) error {
 	if omitted > 0 {
 		ss.Note = fmt.Sprintf("comments on the first %d problems only (%d more); the status column lists every problem", MaxComments, omitted)
 	}
-	ss.Blank = s.lastRow - s.headerRow - len(s.rows)
+	ss.Blank = s.lastRow - s.lastHeaderRow() - len(s.rows)
 	if len(s.rows) == 0 {
 		ss.Blank = 0
 		ss.Note = joinNote(ss.Note, "no data rows below the header")
@@ -871,6 +885,28 @@ func (s *sheetRun) writeHeaders(ss *SheetSummary) error {
 		last := cellName(s.maxCol+len(headers)-1, s.headerRow)
 		if err := s.f.SetCellStyle(s.name, first, last, style); err != nil {
 			return fmt.Errorf("style the result headers on sheet %q: %w", s.name, err)
+		}
+	}
+	if s.unitRow == 0 {
+		return nil
+	}
+	// A sheet with a row of units under its header gets the units of the
+	// results there too, in the style of the first input's unit cell.
+	unitCells := make([]any, 0, len(headers))
+	for _, p := range ss.Pairs {
+		for _, c := range p.Outputs {
+			unitCells = append(unitCells, c.Unit)
+		}
+	}
+	first = cellName(s.maxCol, s.unitRow)
+	if err := s.f.SetSheetRow(s.name, first, &unitCells); err != nil {
+		return fmt.Errorf("write the result units on sheet %q: %w", s.name, err)
+	}
+	style, err = s.f.GetCellStyle(s.name, cellName(s.pairs[0].in[0].idx, s.unitRow))
+	if err == nil && style != 0 {
+		last := cellName(s.maxCol+len(unitCells)-1, s.unitRow)
+		if err := s.f.SetCellStyle(s.name, first, last, style); err != nil {
+			return fmt.Errorf("style the result units on sheet %q: %w", s.name, err)
 		}
 	}
 	return nil

@@ -252,3 +252,47 @@ func TestHeaderRow(t *testing.T) {
 		t.Errorf("patm 1.01325 MPa: %v, want ErrBadOption", err)
 	}
 }
+
+// TestUnitRow: a row of units under a header of names ("Pressure" over
+// "barg") gives the input columns their units, is not read as data, and
+// gets the units of the results; the results are those of the same values
+// with the units in the headers. A unit under a header that names another
+// unit stops the fill.
+func TestUnitRow(t *testing.T) {
+	data := save(t, sheetOf(t,
+		[]any{"Boiler test 7"},
+		[]any{"Point", "Drum pressure", "Steam temperature", "Note"},
+		[]any{nil, "barg", "[°C]", nil},
+		[]any{"P1", 6.0, 330.0, "steady"},
+		[]any{"P2", 10.5, 400.0, nil},
+	))
+	f, sum := fillBytes(t, data, "units-row.xlsx", opts())
+	s := sum.Sheets[0]
+	if s.HeaderRow != 2 || s.UnitRow != 3 || s.Rows != 2 || s.OK != 2 || s.Blank != 0 {
+		t.Errorf("sheet %+v; want header row 2, units in row 3, 2 rows ok", s)
+	}
+	ins := [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}
+	if n := verifySheet(t, f, "Data", 4, 5, ins, outCols{"E", "F", "G", "H", "I", "J"}); n != 2 {
+		t.Errorf("%d rows verified, want 2", n)
+	}
+	for cell, want := range map[string]string{"F2": "h [kJ/kg]", "F3": "kJ/kg", "G3": "kJ/(kg·K)", "E3": "", "J3": ""} {
+		if got := raw(t, f, "Data", cell); got != want {
+			t.Errorf("%s = %q, want %q", cell, got, want)
+		}
+	}
+	if got := raw(t, f, "Data", "E3"); got != "" {
+		t.Errorf("status beside the row of units: %q, want none", got)
+	}
+	if !strings.Contains(summaryText(t, f, sum.SummarySheet), "units read from row 3") {
+		t.Errorf("the summary does not say where the units came from")
+	}
+
+	clash := save(t, sheetOf(t,
+		[]any{"Pressure [bar]", "Temperature"},
+		[]any{"kPa", "°C"},
+		[]any{6.0, 330.0},
+	))
+	if err := fillErr(t, clash, "clash.xlsx", opts()); !errors.Is(err, workbook.ErrAmbiguous) || !strings.Contains(err.Error(), "kPa") {
+		t.Errorf("bar in the header, kPa under it: %v, want ErrAmbiguous naming both", err)
+	}
+}

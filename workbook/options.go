@@ -88,6 +88,7 @@ type SheetSummary struct {
 	Filled    bool
 	Note      string // why the sheet was not filled, or what to know
 	HeaderRow int    // 1-based; 0 when there is none
+	UnitRow   int    // 1-based row of units under the header; 0 when there is none
 	Pairs     []Pair
 	Rows      int
 	OK        int
