@@ -520,6 +520,18 @@ func (s *sheetRun) decide(top [][]string) error {
 			header = top[s.headerRow-1]
 		}
 		completeMapped(pairs, header)
+		var cols []inputCol
+		for _, p := range pairs {
+			cols = append(cols, p.in[:]...)
+		}
+		unitRow, err := unitsBelow(s.name, top, s.headerRow, cols)
+		if err != nil {
+			return err
+		}
+		for i := range pairs {
+			copy(pairs[i].in[:], cols[2*i:2*i+2])
+		}
+		s.unitRow = unitRow
 		s.pairs = pairs
 		return nil
 	}

@@ -296,3 +296,20 @@ func TestUnitRow(t *testing.T) {
 		t.Errorf("bar in the header, kPa under it: %v, want ErrAmbiguous naming both", err)
 	}
 }
+
+// TestUnitRowWithMap: with a column map, a row of units under the header
+// row is skipped too, and fills in the units the map leaves out.
+func TestUnitRowWithMap(t *testing.T) {
+	data := save(t, sheetOf(t,
+		[]any{"Tag", "Reading 1", "Reading 2"},
+		[]any{nil, "barg", "°C"},
+		[]any{"P1", 6.0, 330.0},
+	))
+	o := opts()
+	o.Map = "B=p,C=t:C"
+	f, sum := fillBytes(t, data, "mapped.xlsx", o)
+	if s := sum.Sheets[0]; s.HeaderRow != 1 || s.UnitRow != 2 || s.Rows != 1 || s.OK != 1 {
+		t.Errorf("sheet %+v; want header row 1, units in row 2, 1 row ok", s)
+	}
+	verifyRow(t, f, "Data", 3, [2]string{"6", "330"}, [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}, outCols{"D", "E", "F", "G", "H", "I"})
+}
