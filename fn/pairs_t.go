@@ -240,16 +240,18 @@ func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Satura
 	}
 	qMin, qMax := math.Inf(1), math.Inf(-1)
 	for _, b := range bs {
-		f := func(a float64) float64 {
-			pr := eval(b.r, a, T)
-			return value(q, &pr) - val
-		}
+		// The samples and the bracketed solves run on the region's
+		// equation collapsed to the isotherm (if97.Isotherm, the same
+		// values to rounding at a tenth of the cost); each root is then
+		// polished on the full equation.
+		it := isothermOf(b.r, T, q)
+		f := func(a float64) float64 { return it.At(a) - val }
 		for _, br := range crossings(f, b.lo, b.hi, b.log, &qMin, &qMax) {
 			a, ok := rootBrent(f, br[0], br[1], f(br[0]), f(br[1]), 1e-15)
 			if !ok {
 				continue
 			}
-			pr := eval(b.r, a, T)
+			pr := polishOnIsotherm(b, q, val, a, br, T)
 			if !seen(found, pr.P) {
 				found = append(found, singleState(b.r, pr))
 			}
@@ -272,6 +274,35 @@ func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Satura
 		Detail: fmt.Sprintf("at T = %g K, %s = %g %s fits %s; give p instead of T", T, q.Symbol(), val, q.BaseUnit(), strings.Join(alts, " and "))}
 }
 
+// isothermOf returns h or s of region r along the isotherm T.
+func isothermOf(r int, T float64, q Quantity) if97.Isotherm {
+	if q == Entropy {
+		return if97.NewIsotherm(r, T, if97.IsothermEntropy)
+	}
+	return if97.NewIsotherm(r, T, if97.IsothermEnthalpy)
+}
+
+// polishOnIsotherm returns the state on stretch b of the isotherm T where
+// q = val, from a root a found on the collapsed equation inside the
+// bracket br: a safeguarded Newton solve on the full equation from a, kept
+// inside br, to the same tolerance as the bracketed solve on the full
+// equation would reach. Where the isotherm is nearly flat (s of water near
+// its density maximum), rounding moves the root by more than the Newton
+// steps' tolerance allows, and the solve falls back on bisection of br.
+func polishOnIsotherm(b branch, q Quantity, val, a float64, br [2]float64, T float64) if97.Props {
+	f := func(x float64) (float64, float64) {
+		pr := eval(b.r, x, T)
+		da, _ := partials(q, b.r, &pr)
+		return value(q, &pr) - val, da
+	}
+	flo, _ := f(br[0])
+	fhi, _ := f(br[1])
+	if x, ok := rootBracketed(f, br[0], br[1], flo, fhi, a, 1e-15); ok {
+		a = x
+	}
+	return eval(b.r, a, T)
+}
+
 // tSFallsWithP is the temperature, K, above which s falls with rising p
 // (and ρ) along the whole isotherm inside IF97's range:
 // (∂s/∂p)_T = −v αv, and αv < 0 only in liquid water colder than its
@@ -283,7 +314,8 @@ const tSFallsWithP = 278.0
 // fromTSFalling solves (T, s) where s falls along every stretch of the
 // isotherm (T ≥ tSFallsWithP), so at most one state fits: the mixture if s
 // lies between s' and s”, else the one stretch whose end values enclose
-// s, solved by Brent's method in ln p (or ρ) and polished by Newton steps.
+// s, solved by Brent's method in ln p (or ρ) on the equation collapsed to
+// the isotherm and polished on the full equation (polishOnIsotherm).
 // It reports false where that does not settle the answer (s outside every
 // stretch, a failed solve), and fromTQ's general search decides.
 func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
@@ -291,13 +323,12 @@ func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
 		return mixture(*sat, quality(sat.Liquid.S, sat.Vapour.S, val)), true
 	}
 	for _, b := range bs {
+		it := isothermOf(b.r, T, Entropy)
 		f := func(x float64) float64 {
-			a := x
 			if b.log {
-				a = math.Exp(x)
+				x = math.Exp(x)
 			}
-			pr := eval(b.r, a, T)
-			return pr.S - val
+			return it.At(x) - val
 		}
 		lo, hi := b.lo, b.hi
 		if b.log {
@@ -315,8 +346,8 @@ func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
 		if b.log {
 			a = math.Exp(x)
 		}
-		pr, ok := newton1n(b.r, Entropy, val, a, T, false, 8)
-		if !ok || !(pr.T == T) || native(b.r, &pr) < b.lo*(1-1e-12) || native(b.r, &pr) > b.hi*(1+1e-12) {
+		pr := polishOnIsotherm(b, Entropy, val, a, [2]float64{b.lo, b.hi}, T)
+		if math.Abs(pr.S-val) > resTol(Entropy, val) {
 			return State{}, false
 		}
 		return singleState(b.r, pr), true
@@ -353,12 +384,17 @@ func outOfRangeAlongIsotherm(q Quantity, val, T, qMin, qMax float64) error {
 func crossings(f func(float64) float64, lo, hi float64, logScale bool, fMin, fMax *float64) [][2]float64 {
 	const n = 64
 	var xs, fs [n + 1]float64
+	ratio := math.Pow(hi/lo, 1.0/n) // log scale: each sample this factor above the last
 	for i := range xs {
-		t := float64(i) / n
-		if logScale {
-			xs[i] = lo * math.Pow(hi/lo, t)
-		} else {
-			xs[i] = lo + (hi-lo)*t
+		switch {
+		case i == n:
+			xs[i] = hi
+		case logScale && i > 0:
+			xs[i] = xs[i-1] * ratio
+		case logScale:
+			xs[i] = lo
+		default:
+			xs[i] = lo + (hi-lo)*float64(i)/n
 		}
 		fs[i] = f(xs[i])
 	}
