@@ -107,9 +107,21 @@ func TestDemo(t *testing.T) {
 		t.Errorf("comment on C8 = %q, want it to say C8 is blank", c)
 	}
 
+	// Condensate return: the units in a row of their own under the names,
+	// absolute kPa; subcooled condensate.
+	const cond = "Condensate return"
+	if n := verifySheet(t, f, cond, 5, 8, [2]in{{"B", fn.Pressure, "kPa"}, {"C", fn.Temperature, "°C"}}, outCols{"E", "F", "G", "H", "I", "J"}); n != 4 {
+		t.Errorf("%s: %d points verified, want 4", cond, n)
+	}
+	for cell, want := range map[string]string{"F3": "h [kJ/kg]", "F4": "kJ/kg", "J8": "compressed liquid"} {
+		if got := raw(t, f, cond, cell); got != want {
+			t.Errorf("%s!%s = %q, want %q", cond, cell, got, want)
+		}
+	}
+
 	// Counts and the summary sheet.
-	if sum.Rows != 51 || sum.OK != 47 || sum.Flagged != 2 || sum.Failed != 2 || sum.Blank != 2 {
-		t.Errorf("summary rows %d ok %d flagged %d failed %d blank %d, want 51 47 2 2 2",
+	if sum.Rows != 55 || sum.OK != 51 || sum.Flagged != 2 || sum.Failed != 2 || sum.Blank != 2 {
+		t.Errorf("summary rows %d ok %d flagged %d failed %d blank %d, want 55 51 2 2 2",
 			sum.Rows, sum.OK, sum.Flagged, sum.Failed, sum.Blank)
 	}
 	if sum.SummarySheet != "steamcell summary" {
@@ -123,11 +135,12 @@ func TestDemo(t *testing.T) {
 		"Formulation | IAPWS-IF97 (IAPWS R7-97(2012))",
 		"Unit set of results | si: h in kJ/kg, s in kJ/(kg·K), v in m³/kg",
 		"Atmosphere for gauge units | 101.325 kPa",
-		"Rows with inputs | 51",
+		"Rows with inputs | 55",
 		"flagged (check) | 2",
 		"failed (no values) | 2",
 		`Boiler 2 acceptance | Feedwater | E "Feedwater pressure [barg]" as p in barg | F "Feedwater temperature [°C]" as T in °C | N:S | 30 | 0 | 0`,
 		`Process steam header | yes | 3 | 6 | 3 | 2 | 1 | 0 | 3`,
+		`Condensate return | yes | 3 | 4 | 4 | 0 | 0 | 0 | 0 | units read from row 4, under the header`,
 	}, workbook.Cautions...) {
 		if !strings.Contains(text, want) {
 			t.Errorf("summary lacks %q; it reads:\n%s", want, text)
@@ -166,7 +179,7 @@ func TestDemoUnits(t *testing.T) {
 	if got, want := num(t, f, sh, "G4"), tu.FromBase(st.T, 0); !scalarEq(got, want) {
 		t.Errorf("G4 T = %.17g °F, want %.17g", got, want)
 	}
-	if names := f.GetSheetList(); len(names) != 5 {
-		t.Errorf("sheets %q, want the four of the demo and the summary", names)
+	if names := f.GetSheetList(); len(names) != 6 {
+		t.Errorf("sheets %q, want the five of the demo and the summary", names)
 	}
 }

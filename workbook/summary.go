@@ -74,7 +74,7 @@ func (r *run) writeSummary() error {
 	w.row(0, "Program", "steamcell "+version)
 	w.row(0, "Formulation", Formulation)
 	w.row(0, "Unit set of results", set.Name()+": "+r.unitList())
-	w.row(0, "Numbers without a unit", "read in the unit of the column header; without one there, in the unit set")
+	w.row(0, "Numbers without a unit", "read in the unit of the column header or of the row of units under it; without one there, in the unit set")
 	w.row(0, "Atmosphere for gauge units", fmt.Sprintf("%.6g %s", pu.FromBase(patm, 0), pu.Name))
 	w.row(0, "Saturation margin", margin)
 	w.row(0, "Rows with inputs", r.sum.Rows)

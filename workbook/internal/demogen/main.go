@@ -75,6 +75,7 @@ func run(out string) error {
 		return err
 	}
 	steamHeader(b)
+	condensateReturn(b)
 	b.do(f.DeleteSheet("Sheet1"))
 	f.SetActiveSheet(0)
 	if b.err != nil {
@@ -217,4 +218,28 @@ func steamHeader(b *book) {
 	b.do(b.f.SetColWidth(sh, "B", "C", 14))
 	b.do(b.f.SetColWidth(sh, "D", "D", 36))
 	b.do(b.f.SetRowHeight(sh, 3, 45))
+}
+
+// condensateReturn: a plant log with the units in a row of their own under
+// the names, absolute pressure in kPa; subcooled condensate.
+func condensateReturn(b *book) {
+	const sh = "Condensate return"
+	if _, err := b.f.NewSheet(sh); err != nil {
+		b.do(err)
+		return
+	}
+	b.row(sh, 1, "Condensate return to the deaerator, shift log (invented data)")
+	b.style(sh, "A1", "A1", b.title)
+	b.row(sh, 3, "Time", "Return pressure", "Return temperature", "Operator")
+	b.row(sh, 4, nil, "kPa", "°C", nil)
+	b.style(sh, "A3", "D4", b.header)
+	for i, vals := range [][]any{
+		{"06:00", 412.0, 96.5, "RM"},
+		{"10:00", 405.5, 98.1, "RM"},
+		{"14:00", 418.0, 95.2, "JT"},
+		{"18:00", 409.0, 97.4, "JT"},
+	} {
+		b.row(sh, 5+i, vals...)
+	}
+	b.do(b.f.SetColWidth(sh, "B", "C", 14))
 }
