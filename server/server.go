@@ -72,27 +72,14 @@ type Server struct {
 
 // New returns a server set up by cfg.
 func New(cfg Config) *Server {
-	if cfg.MaxRows <= 0 {
-		cfg.MaxRows = DefaultMaxRows
-	}
-	if cfg.MaxBodyBytes <= 0 {
-		cfg.MaxBodyBytes = DefaultMaxBodyBytes
-	}
-	if cfg.MaxWorkbookBytes <= 0 {
-		cfg.MaxWorkbookBytes = DefaultMaxWorkbookBytes
-	}
-	if cfg.MaxHeaderBytes <= 0 {
-		cfg.MaxHeaderBytes = DefaultMaxHeaderBytes
-	}
-	if cfg.ReadTimeout <= 0 {
-		cfg.ReadTimeout = DefaultReadTimeout
-	}
-	if cfg.WriteTimeout <= 0 {
-		cfg.WriteTimeout = DefaultWriteTimeout
-	}
-	if cfg.IdleTimeout <= 0 {
-		cfg.IdleTimeout = DefaultIdleTimeout
-	}
+	orDefault(&cfg.MaxRows, DefaultMaxRows)
+	orDefault(&cfg.MaxBodyBytes, DefaultMaxBodyBytes)
+	orDefault(&cfg.MaxWorkbookBytes, DefaultMaxWorkbookBytes)
+	orDefault(&cfg.MaxHeaderBytes, DefaultMaxHeaderBytes)
+	orDefault(&cfg.ReadTimeout, DefaultReadTimeout)
+	orDefault(&cfg.WriteTimeout, DefaultWriteTimeout)
+	orDefault(&cfg.IdleTimeout, DefaultIdleTimeout)
+	orDefault(&cfg.Fills, 1)
 	if cfg.Workers <= 0 || cfg.Workers > 2 {
 		cfg.Workers = min(2, runtime.GOMAXPROCS(0))
 	}
@@ -100,15 +87,20 @@ func New(cfg Config) *Server {
 	if log == nil {
 		log = slog.New(slog.NewTextHandler(io.Discard, nil))
 	}
-	if cfg.Fills <= 0 {
-		cfg.Fills = 1
-	}
 	s := &Server{cfg: cfg, log: log, metrics: newMetrics(), fills: make(chan struct{}, cfg.Fills)}
 	if cfg.Token != "" {
 		s.token = []byte(cfg.Token)
 	}
 	s.engine = s.routes()
 	return s
+}
+
+// orDefault sets *v to d where the configuration leaves it zero or
+// negative.
+func orDefault[T int | int64 | time.Duration](v *T, d T) {
+	if *v <= 0 {
+		*v = d
+	}
 }
 
 // routes builds the router.
