@@ -233,7 +233,7 @@ func TestBatchBodies(t *testing.T) {
 		{"empty JSON", "application/json", "", 400, "malformed_body"},
 		{"one input column", "text/csv", "tag,p [bar]\na,1\n", 400, "input_count"},
 		{"three input columns", "text/csv", "p [bar],t [°C],h [kJ/kg]\n1,2,3\n", 400, "input_count"},
-		{"two pressure columns", "text/csv", "P1 [bar],P2 [bar],t [°C]\n1,2,3\n", 400, "malformed_body"},
+		{"two pressure columns", "text/csv", "P1 [bar],P2 [bar],t [°C]\n1,2,3\n", 400, "repeated_input"},
 		{"unit of another quantity", "text/csv", "p [°C],t [°C]\n1,2\n", 400, "malformed_body"},
 		{"invalid UTF-8 header", "text/csv", "p [bar],\xff\xfe\nt\n", 400, "malformed_body"},
 		{"JSON object, not array", "application/json", `{"p":"1bar","t":"20C"}`, 400, "malformed_body"},

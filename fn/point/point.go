@@ -25,6 +25,14 @@ var (
 	// ErrUndefined: a property asked for by name has no value for this
 	// state (cp of a saturated mixture, x of superheated vapour).
 	ErrUndefined = errors.New("not defined for this state")
+	// ErrRepeatedInput: one property given twice ("p" and "pressure", two
+	// columns of pressure in a batch).
+	ErrRepeatedInput = errors.New("input given twice")
+	// ErrHeader: a table header that cannot be read without guessing
+	// ("P [kPa] gauge", "Pressure (drum)" with no unit anywhere).
+	ErrHeader = errors.New("header cannot be read")
+	// ErrMap: a column map that cannot be read.
+	ErrMap = errors.New("bad column map")
 )
 
 // Error is a problem with a point as given: which parameter, what kind,
@@ -97,13 +105,8 @@ type Options struct {
 	Patm float64   // atmospheric pressure for gauge units, MPa; 0 is the standard atmosphere
 }
 
-// Read turns exactly two given inputs into the engine's inputs.
-func Read(given []Given, opt Options) ([2]fn.Input, error) {
-	in, _, err := read(given, opt)
-	return in, err
-}
-
-// read is Read that also returns the unit each input was read in.
+// read turns exactly two given inputs into the engine's inputs, with the
+// unit each was read in.
 func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 	var out [2]fn.Input
 	var us [2]units.Unit
@@ -131,7 +134,7 @@ func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 		out[i], us[i] = fn.Input{Q: q, Value: v}, u
 	}
 	if out[0].Q == out[1].Q {
-		return out, us, &Error{Param: given[1].Name, Kind: ErrInputCount,
+		return out, us, &Error{Param: given[1].Name, Kind: ErrRepeatedInput,
 			Msg: fmt.Sprintf("%s and %s are the same property; give two different ones", given[0].Name, given[1].Name)}
 	}
 	return out, us, nil

@@ -41,16 +41,16 @@ func TestReadErrors(t *testing.T) {
 	}{
 		{[]Given{{Name: "p", Text: "1 MPa"}}, ErrInputCount},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "300 K"}, {Name: "h", Text: "100"}}, ErrInputCount},
-		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "pressure", Text: "2 MPa"}}, ErrInputCount},
+		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "pressure", Text: "2 MPa"}}, ErrRepeatedInput},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "zz", Text: "2"}}, ErrUnknownInput},
 		{[]Given{{Name: "p", Text: "300 C"}, {Name: "t", Text: "300 C"}}, units.ErrWrongDimension},
 		{[]Given{{Name: "p", Text: "1,5 bar"}, {Name: "t", Text: "300 C"}}, units.ErrAmbiguousNumber},
 		{[]Given{{Name: "p", Text: ""}, {Name: "t", Text: "300 C"}}, units.ErrEmpty},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "x", Text: "85"}}, units.ErrQualityRange},
 	} {
-		_, err := Read(tc.given, Options{})
+		_, _, err := read(tc.given, Options{})
 		if !errors.Is(err, tc.kind) {
-			t.Errorf("Read(%v) error %v, want kind %v", tc.given, err, tc.kind)
+			t.Errorf("read(%v) error %v, want kind %v", tc.given, err, tc.kind)
 		}
 	}
 }
