@@ -272,7 +272,7 @@ func outputs(add []string, po point.Options) ([]output, []string, error) {
 				outs = append(outs, output{sym: sym, header: "IF97 region", width: 12})
 			default:
 				p, _ := point.Lookup(sym)
-				u := po.Set.Unit(p.Dim).Name
+				u := p.Unit(po.Set)
 				label := u
 				if label == "" {
 					label = "-"

@@ -204,22 +204,21 @@ type Answer struct {
 const Formulation = "IAPWS-IF97"
 
 // Symbols checks a list of property symbols (e.g. from get=h,s) and returns
-// them in canonical form; "all" stands for every property. An empty list
-// gives nil, which Render reads as the default properties.
+// them in canonical form; "all" stands for every property. phase and
+// region, which every answer has apart from its fields, are accepted and
+// left out. An empty list gives nil, which Render reads as the default
+// properties; a list of phase or region alone gives an empty list.
 func Symbols(list []string) ([]string, error) {
-	if len(list) == 0 {
-		return nil, nil
-	}
 	out := make([]string, 0, len(list))
+	named := false
 	for _, s := range list {
 		s = strings.TrimSpace(s)
 		if s == "" {
 			continue
 		}
+		named = true
 		if strings.EqualFold(s, "all") {
-			for _, p := range catalogue {
-				out = append(out, p.Symbol)
-			}
+			out = append(out, fieldSymbols()...)
 			continue
 		}
 		p, ok := Lookup(s)
@@ -227,18 +226,33 @@ func Symbols(list []string) ([]string, error) {
 			return nil, &Error{Param: s, Kind: ErrUnknownProperty,
 				Msg: fmt.Sprintf("%s is not a property; properties are %s", quote(s), strings.Join(allSymbols(), ", "))}
 		}
-		out = append(out, p.Symbol)
+		if !p.Always {
+			out = append(out, p.Symbol)
+		}
 	}
-	if len(out) == 0 {
+	if !named {
 		return nil, nil
 	}
 	return out, nil
 }
 
+// allSymbols lists every symbol of the catalogue, phase and region first.
 func allSymbols() []string {
 	var s []string
 	for _, p := range catalogue {
 		s = append(s, p.Symbol)
+	}
+	return s
+}
+
+// fieldSymbols lists the symbols of the properties that are fields of an
+// answer: all but phase and region.
+func fieldSymbols() []string {
+	var s []string
+	for _, p := range catalogue {
+		if !p.Always {
+			s = append(s, p.Symbol)
+		}
 	}
 	return s
 }
@@ -262,16 +276,16 @@ func Render(st *fn.State, syms []string, opt Options) Answer {
 			continue
 		}
 		v, ok := p.get(w)
-		u := opt.Set.Unit(p.Dim)
-		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: u.Name, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
+		label := p.Unit(opt.Set)
+		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: label, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
 		if defaults && !f.Defined {
 			continue
 		}
 		if f.Defined {
-			f.Value = u.FromBase(v, opt.Patm)
+			f.Value = p.fromBase(v, opt.Set.Unit(p.Dim), opt.Patm)
 		}
 		a.Fields = append(a.Fields, f)
-		a.Units[p.Symbol] = u.Name
+		a.Units[p.Symbol] = label
 	}
 	a.Warnings = append(a.Warnings, w.trWarn...)
 	if w.sigmaWarn != "" {
