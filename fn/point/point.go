@@ -103,6 +103,8 @@ type Given struct {
 type Options struct {
 	Set  units.Set // units of bare numbers and of the answer; the zero Set is "si"
 	Patm float64   // atmospheric pressure for gauge units, MPa; 0 is the standard atmosphere
+
+	typed [2]units.Unit // the units the inputs were typed in, for the figures of messages (withTyped)
 }
 
 // read turns exactly two given inputs into the engine's inputs, with the
@@ -156,10 +158,7 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
 				echo := "given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit)
 				if u := us[i]; ie.HasLimit && u.Name != ie.Unit && !(u.Name == "" && ie.Unit == "fraction") {
-					echo += "; the limit is " + strconv.FormatFloat(u.FromBase(ie.Limit, opt.Patm), 'g', 8, 64)
-					if u.Name != "" {
-						echo += " " + u.Name
-					}
+					echo += "; the limit is " + opt.withTyped(in, us).figureText(in[i].Q, ie.Limit, false)
 				}
 				err = fmt.Errorf("%w (%s)", err, echo)
 				break

@@ -67,6 +67,8 @@ func TestOutOfRangeEchoesTheUsersUnit(t *testing.T) {
 		{[]Given{{Name: "p", Text: "1200 bar"}, {Name: "t", Text: "300 C"}}, "(given as p=1200 bar; the limit is 1000 bar)"},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "3300", Unit: "°C"}}, "(given as t=3300 °C; the limit is 2000 °C)"},
 		{[]Given{{Name: "p", Text: "120 MPa"}, {Name: "t", Text: "600 K"}}, "(given as p=120 MPa)"},
+		// 100 MPa less the standard atmosphere (0.101325 MPa) is 998.98675 bar.
+		{[]Given{{Name: "p", Text: "1100 barg"}, {Name: "t", Text: "300 C"}}, "(given as p=1100 barg; the limit is 998.987 barg)"},
 	} {
 		_, _, err := Solve(tc.given, Options{})
 		if !errors.Is(err, fn.ErrOutOfRange) || !strings.HasSuffix(err.Error(), tc.want) {
