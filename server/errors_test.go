@@ -276,7 +276,7 @@ func clip(s string) string {
 // failingFiller is a workbook filler that fails in the ways a filler can.
 type failingFiller struct{ mode string }
 
-func (f failingFiller) Fill(_ context.Context, in io.Reader, _ int64, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
+func (f failingFiller) Fill(_ context.Context, in io.Reader, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
 	switch f.mode {
 	case "internal":
 		return nil, errors.New("open /var/secret/thing.xlsx: permission denied")
