@@ -240,13 +240,13 @@ func newCSVSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*csvSource, e
 }
 
 // notes says how the input columns are read, for the Steamcell-Columns
-// header of the answer.
+// header of the answer (as ASCII: "deg C").
 func (cs *csvSource) notes() string {
 	var n []string
 	for _, in := range cs.inputs {
 		n = append(n, in.Note())
 	}
-	return clean(strings.Join(n, "; "), 1000)
+	return headerText(strings.Join(n, "; "))
 }
 
 // sniffDelimiter picks the delimiter of the header line: a comma, or a

@@ -1,7 +1,10 @@
 package workbook
 
 import (
+	"bytes"
+	"context"
 	"errors"
+	"strings"
 	"testing"
 
 	"steamcell/fn/point"
@@ -26,5 +29,17 @@ func TestReadColumns(t *testing.T) {
 	tab, err = ReadColumns(header, nil, "D=p,E=t", units.Set{})
 	if err != nil || tab.Columns[0].From != point.FromHeader || tab.Columns[0].Unit != "kPa" {
 		t.Errorf("mapped columns right of the status: %+v, %v", tab, err)
+	}
+}
+
+// A column read in the unit set says so in the summary.
+func TestSetUnitNamedInSummary(t *testing.T) {
+	var out bytes.Buffer
+	sum, err := Fill(context.Background(), strings.NewReader("Tag,Pressure,T [°C]\nA,700,330\n"), "points.csv", Options{}, &out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if note := sum.Sheets[0].Note; !strings.Contains(note, `p "Pressure": read as kPa, unit set si`) {
+		t.Errorf("note %q, want it to name kPa and the unit set", note)
 	}
 }

@@ -62,4 +62,43 @@
 //
 // The f and g suffixes are the steam-table notation of the trade for the
 // saturated liquid and vapour.
+//
+// # Headers
+//
+// A table of points (a CSV body of /batch, the keys of its JSON objects, a
+// sheet that fill or POST /workbook fills) names its input columns in a
+// header row, perhaps with a row of units under it and a column map;
+// ReadTable reads them all, by these rules:
+//
+//   - A header names a quantity by a word (pressure, temperature, enthalpy,
+//     entropy, volume, density, quality, dryness, "internal energy") or by
+//     its symbol as the first or last word ("P1 [psig]", "Steam T [°C]").
+//     Words that make it another measurement (drop, rise, difference,
+//     superheat, time, tag, …) make it no input: "Pressure drop [kPa]",
+//     "Volume flow [m³/h]".
+//   - A unit in brackets or parentheses counts wherever it stands:
+//     "Pressure [barg] PT-101", "T [K] inlet", "Drum pressure [bar] avg".
+//     Without brackets a unit may stand as a word: "P barg", "Pressure,
+//     barg", "Steam T °C".
+//   - Brackets that hold a tag ("[PT-101]", "(TI2301)") are passed over.
+//   - Words outside the unit that qualify or contradict it are refused, with
+//     the header as it should be written: "P [kPa] gauge" (write "P
+//     [kPag]"), "P [barg] abs" (write "P [bar]"), "T [°C] abs" (write
+//     "T [K]"), "P bar g" (write "P [barg]"), a vacuum reading. Words that
+//     repeat what the unit says are fine: "P [bar] abs", "T [K] abs".
+//   - Brackets that hold no unit of the header's quantity stop the table
+//     unless the row of units or the map gives one: "Pressure (drum)",
+//     "P [barx]", and a unit of another quantity, "P [°C]", always. So do
+//     two units ("Pressure [barg] [kPa]") and two quantities ("Pressure or
+//     temperature"). The message lists the headers seen.
+//   - The row under the header is a row of units when every cell under an
+//     input column is blank or a unit of its quantity ("barg", "[°C]"); it
+//     fills in the units the headers leave out, and must agree with those
+//     they give.
+//   - A column map (ParseMap) says which columns are inputs; its unit comes
+//     first, then the header's (when the header names the same quantity),
+//     then the row of units.
+//   - A header that names a quantity and no unit anywhere is read in the
+//     unit set, and Column.Note says so: `p "Pressure": read as kPa, unit
+//     set si`.
 package point
