@@ -479,9 +479,19 @@ func readHeader(text string) draft {
 	// ("T C"), so that a label such as "Line K" is not a kelvin.
 	tokens := strings.FieldsFunc(string(outside), func(r rune) bool { return unicode.IsSpace(r) || r == ',' })
 	for i, tok := range tokens {
-		if (i == len(tokens)-1 || len([]rune(tok)) > 1) && unitOf(tok, q) && !isQuantityWord(tok) {
+		switch {
+		case (i == len(tokens)-1 || len([]rune(tok)) > 1) && unitOf(tok, q) && !isQuantityWord(tok):
 			if !setUnit(tok) {
 				return d
+			}
+		case strings.Contains(tok, "/"):
+			// The quantity over its unit (ISO 80000-1, 7.1): "p/bar",
+			// "T/°C", "h/kJ/kg"; the unit may be bracketed, "h/(kJ/kg)".
+			name, u, _ := strings.Cut(tok, "/")
+			if qn, _, _ := headerQuantity(name); qn == q && u != "" && unitOf(u, q) {
+				if !setUnit(u) {
+					return d
+				}
 			}
 		}
 	}
@@ -712,7 +722,8 @@ func headerQuantity(label string) (q fn.Quantity, sym, why string) {
 			add(fn.InternalEnergy)
 		}
 	}
-	if len(found) == 0 && len(words) > 0 {
+	bySymbol := len(found) == 0
+	if bySymbol && len(words) > 0 {
 		if q, ok := headerSymbols[words[0]]; ok {
 			add(q)
 		}
@@ -723,9 +734,10 @@ func headerQuantity(label string) (q fn.Quantity, sym, why string) {
 	switch {
 	case len(found) == 0:
 		return 0, "", ""
-	case blocker || volumeFlow && found[0] == fn.Volume:
+	case blocker || volumeFlow && (found[0] == fn.Volume || bySymbol):
 		// A pressure drop or a temperature rise is not a state: no input,
-		// as for any other column of the sheet.
+		// as for any other column of the sheet. A flow named with a symbol
+		// is a flow too: the h of "Steam flow t/h" is the hour.
 		return 0, "", ""
 	case len(found) > 1:
 		names := make([]string, len(found))

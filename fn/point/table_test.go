@@ -110,6 +110,12 @@ func TestReadHeaderOne(t *testing.T) {
 		{"[TI-2301] Steam temperature (°C)", "t", "°C"},
 		{"Pressure [bar(g)]", "p", "bar(g)"},
 		{"Pressure [bar gauge]", "p", "bar gauge"},
+		{"p/bar", "p", "bar"},
+		{"T/°C", "t", "°C"},
+		{"h/kJ/kg", "h", "kJ/kg"},
+		{"h/(kJ/kg)", "h", "kJ/kg"},
+		{"Pressure/barg", "p", "barg"},
+		{"Pressure (abs) [bar]", "p", "bar"},
 
 		// Not inputs.
 		{"Point", "", ""},
@@ -128,6 +134,8 @@ func TestReadHeaderOne(t *testing.T) {
 		{"Unit 3 steam", "", ""},
 		{"Pressure tag", "", ""},
 		{"PT-101 [barg]", "", ""},
+		{"Steam flow t/h", "", ""},
+		{"Flow h", "", ""},
 	} {
 		tab, err := point.ReadTable([]string{tc.text}, nil, nil, units.Set{})
 		switch {

@@ -58,6 +58,8 @@ var Cases = []Case{
 		Want: pt(drum, 603.15), From: []point.UnitSource{point.FromHeader, point.FromHeader}},
 	{Name: "unit as a word", Header: []string{"Tag", "Pressure barg avg", "Temperature, °C"}, Row: []string{"FW-1", "6", "330"},
 		Want: pt(drum, 603.15), From: []point.UnitSource{point.FromHeader, point.FromHeader}},
+	{Name: "quantity over unit", Header: []string{"p/bar", "T/°C"}, Row: []string{"7.01325", "330"},
+		Want: pt(drum, 603.15), From: []point.UnitSource{point.FromHeader, point.FromHeader}},
 	{Name: "no unit: the unit set", Header: []string{"Tag", "Pressure", "Temperature"}, Row: []string{"FW-1", "701.325", "330"},
 		Want: pt(drum, 603.15), From: []point.UnitSource{point.FromSet, point.FromSet}},
 	{Name: "only a tag: the unit set", Header: []string{"Pressure [PT-101]", "T"}, Row: []string{"701.325", "330"},
