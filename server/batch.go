@@ -6,9 +6,11 @@ import (
 	"encoding/csv"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"io"
 	"log/slog"
 	"net/http"
+	"slices"
 	"strconv"
 	"strings"
 	"sync"
@@ -19,6 +21,7 @@ import (
 
 	"steamcell/fn"
 	"steamcell/fn/point"
+	"steamcell/fn/units"
 )
 
 // Limits of the batch stream. Between two flushes the server holds at most
@@ -68,12 +71,13 @@ func (s *Server) postBatch(c *gin.Context) {
 	}
 	var src rowSource
 	if kind == "json" {
-		src, err = newJSONSource(br, lim)
+		src, err = newJSONSource(br, lim, req.opt.Set)
 	} else {
 		var cs *csvSource
-		cs, err = newCSVSource(br, lim)
+		cs, err = newCSVSource(br, lim, req.opt.Set)
 		if err == nil {
 			src, out.header, out.delim = cs, cs.header, cs.r.Comma
+			c.Header("Steamcell-Columns", cs.notes())
 		}
 	}
 	if err != nil {
@@ -169,20 +173,14 @@ type rowSource interface {
 
 // csvSource reads a CSV body.
 type csvSource struct {
-	r      *csv.Reader
-	lim    *rowLimit
-	header []string
-	inputs []csvInput
+	r       *csv.Reader
+	lim     *rowLimit
+	header  []string
+	inputs  []point.Column
+	pending []string // the first data row, read while looking for a row of units
 }
 
-// csvInput is a column read as an input.
-type csvInput struct {
-	col  int
-	sym  string
-	unit string
-}
-
-func newCSVSource(br *bufio.Reader, lim *rowLimit) (*csvSource, error) {
+func newCSVSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*csvSource, error) {
 	r := csv.NewReader(br)
 	r.Comma = sniffDelimiter(br)
 	r.FieldsPerRecord = -1
@@ -196,26 +194,39 @@ func newCSVSource(br *bufio.Reader, lim *rowLimit) (*csvSource, error) {
 	}
 	cs := &csvSource{r: r, lim: lim, header: append([]string(nil), rec...)}
 	cs.header[0] = strings.TrimPrefix(cs.header[0], "\ufeff")
-	var names []string
 	for i, h := range cs.header {
 		if !utf8.ValidString(h) {
 			return nil, errorf(ErrBadBody, "", "header cell %d is not UTF-8 text; save the file as CSV UTF-8", i+1)
 		}
-		m, ok := point.ParseHeader(h)
-		if !ok {
-			if why := point.ExplainHeader(h); why != "" {
-				return nil, errorf(ErrBadBody, clean(h, 40), "column %d, %s: %s", i+1, clean(h, 40), why)
+	}
+	// The line under the header may be a row of units ("barg,°C"); if it
+	// is not, it is the first row of data.
+	below := []string{}
+	cs.lim.reset()
+	if rec, err := r.Read(); err == nil {
+		cs.pending = append([]string(nil), rec...)
+		below = cs.pending
+	}
+	t, err := point.ReadTable(cs.header, below, nil, set)
+	if err != nil {
+		var pe *point.Error
+		errors.As(err, &pe)
+		return nil, errorf(ErrBadBody, clean(pe.Param, 40), "%s", clean(err.Error(), 600))
+	}
+	if t.UnitRow {
+		cs.pending = nil
+	}
+	cs.inputs = t.Columns
+	var names []string
+	for i, in := range cs.inputs {
+		for _, o := range cs.inputs[:i] {
+			if o.Q == in.Q {
+				return nil, &point.Error{Param: clean(in.Header, 40), Kind: point.ErrRepeatedInput, Msg: fmt.Sprintf(
+					"columns %s and %s both hold %s; a batch takes one point per row: keep one, send each pair in its own batch, or send the file to POST /workbook",
+					clean(o.Header, 40), clean(in.Header, 40), in.Q)}
 			}
-			continue
 		}
-		for _, in := range cs.inputs {
-			if in.sym == m.Symbol {
-				return nil, errorf(ErrBadBody, clean(h, 40), "columns %s and %s both hold %s; a batch takes one point per row: keep one, send each pair in its own batch, or send the file to POST /workbook",
-					clean(cs.header[in.col], 40), clean(h, 40), m.Q)
-			}
-		}
-		cs.inputs = append(cs.inputs, csvInput{col: i, sym: m.Symbol, unit: m.Unit})
-		names = append(names, clean(h, 40))
+		names = append(names, clean(in.Header, 40))
 	}
 	if len(cs.inputs) != 2 {
 		msg := "the header names no input"
@@ -226,6 +237,16 @@ func newCSVSource(br *bufio.Reader, lim *rowLimit) (*csvSource, error) {
 			Msg: msg + "; name exactly two, e.g. p [barg],t [°C]; other columns (tags, notes) are passed through. For two points per row send each pair in its own batch, or the file to POST /workbook"}
 	}
 	return cs, nil
+}
+
+// notes says how the input columns are read, for the Steamcell-Columns
+// header of the answer (as ASCII: "deg C").
+func (cs *csvSource) notes() string {
+	var n []string
+	for _, in := range cs.inputs {
+		n = append(n, in.Note())
+	}
+	return headerText(strings.Join(n, "; "))
 }
 
 // sniffDelimiter picks the delimiter of the header line: a comma, or a
@@ -248,7 +269,12 @@ func sniffDelimiter(br *bufio.Reader) rune {
 
 func (cs *csvSource) next(row *batchRow) error {
 	cs.lim.reset()
-	rec, err := cs.r.Read()
+	rec, err := cs.pending, error(nil)
+	if rec != nil {
+		cs.pending = nil
+	} else {
+		rec, err = cs.r.Read()
+	}
 	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
 	var pe *csv.ParseError
 	switch {
@@ -267,10 +293,10 @@ func (cs *csvSource) next(row *batchRow) error {
 	}
 	for _, in := range cs.inputs {
 		text := ""
-		if in.col < len(rec) {
-			text = rec[in.col]
+		if in.Index < len(rec) {
+			text = rec[in.Index]
 		}
-		row.given = append(row.given, point.Given{Name: in.sym, Text: text, Unit: in.unit})
+		row.given = append(row.given, in.Given(text))
 	}
 	return nil
 }
@@ -279,9 +305,15 @@ func (cs *csvSource) next(row *batchRow) error {
 type jsonSource struct {
 	dec *json.Decoder
 	lim *rowLimit
+	set units.Set
+	// The keys of the last row and how they read: rows of one batch mostly
+	// share their keys.
+	keys  []string
+	table point.Table
+	err   error
 }
 
-func newJSONSource(br *bufio.Reader, lim *rowLimit) (*jsonSource, error) {
+func newJSONSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*jsonSource, error) {
 	if b, _ := br.Peek(3); bytes.Equal(b, []byte("\ufeff")) {
 		_, _ = br.Discard(3)
 	}
@@ -293,7 +325,7 @@ func newJSONSource(br *bufio.Reader, lim *rowLimit) (*jsonSource, error) {
 	if d, ok := tok.(json.Delim); err != nil || !ok || d != '[' {
 		return nil, errorf(ErrBadBody, "", `the body must be a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
 	}
-	return &jsonSource{dec: dec, lim: lim}, nil
+	return &jsonSource{dec: dec, lim: lim, set: set}, nil
 }
 
 func (js *jsonSource) next(row *batchRow) error {
@@ -317,7 +349,7 @@ func (js *jsonSource) next(row *batchRow) error {
 		return jsonStop(err, row.n)
 	}
 	row.raw = append(row.raw, b.Bytes()...)
-	row.err = readJSONRow(row.raw, row)
+	row.err = js.readRow(row.raw, row)
 	return nil
 }
 
@@ -333,47 +365,56 @@ func jsonStop(err error, n int) error {
 	return errorf(ErrBadBody, "", "row %d is not valid JSON: %v", n, err)
 }
 
-// readJSONRow reads the inputs of one element, keeping the order of its
-// keys. Keys are read like CSV headers ("p", "T", "Drum pressure [barg]");
-// keys that name no input are passed through.
-func readJSONRow(raw []byte, row *batchRow) error {
+// readRow reads the inputs of one element, keeping the order of its keys.
+// Keys are read as a CSV header is (point.ReadTable: "p", "T", "Drum
+// pressure [barg]"); keys that name no input are passed through.
+func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
 	d := json.NewDecoder(bytes.NewReader(raw))
 	d.UseNumber()
 	if tok, _ := d.Token(); tok != json.Delim('{') {
 		return errorf(ErrBadBody, "", `the row is not a JSON object; give one like {"p":"6 barg","t":"330C"}`)
 	}
+	var keys []string
+	var vals []json.RawMessage
 	for d.More() {
 		kt, err := d.Token()
 		if err != nil {
 			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
 		}
-		key, _ := kt.(string)
-		m, ok := point.ParseHeader(key)
-		if !ok {
-			if why := point.ExplainHeader(key); why != "" {
-				return errorf(ErrBadBody, clean(key, 40), "key %s: %s", clean(key, 40), why)
-			}
-			var skip json.RawMessage
-			if err := d.Decode(&skip); err != nil {
-				return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
-			}
-			continue
-		}
-		vt, err := d.Token()
-		if err != nil {
+		var v json.RawMessage
+		if err := d.Decode(&v); err != nil {
 			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
 		}
+		key, _ := kt.(string)
+		keys, vals = append(keys, key), append(vals, v)
+	}
+	if js.keys == nil || !slices.Equal(keys, js.keys) {
+		js.keys = keys
+		js.table, js.err = point.ReadTable(keys, nil, nil, js.set)
+		var pe *point.Error
+		if errors.As(js.err, &pe) {
+			js.err = errorf(ErrBadBody, clean(pe.Param, 40), "%s", clean(js.err.Error(), 600))
+		}
+	}
+	if js.err != nil {
+		return js.err
+	}
+	for _, c := range js.table.Columns {
 		var text string
-		switch v := vt.(type) {
+		var v any
+		dv := json.NewDecoder(bytes.NewReader(vals[c.Index]))
+		dv.UseNumber()
+		_ = dv.Decode(&v)
+		switch v := v.(type) {
 		case string:
 			text = v
 		case json.Number:
 			text = v.String()
 		case nil:
 		default:
-			return errorf(ErrBadBody, clean(key, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(key, 40))
+			return errorf(ErrBadBody, clean(c.Header, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(c.Header, 40))
 		}
-		row.given = append(row.given, point.Given{Name: m.Symbol, Text: text, Unit: m.Unit})
+		row.given = append(row.given, c.Given(text))
 	}
 	return nil
 }

@@ -104,6 +104,7 @@ var errorTable = []errorClass{
 
 	// Reading a point (fn/point).
 	{point.ErrInputCount, http.StatusBadRequest, "input_count"},
+	{point.ErrRepeatedInput, http.StatusBadRequest, "repeated_input"},
 	{point.ErrUnknownInput, http.StatusBadRequest, "unknown_input"},
 	{point.ErrUnknownProperty, http.StatusBadRequest, "unknown_property"},
 	{point.ErrUndefined, http.StatusUnprocessableEntity, "undefined_for_state"},

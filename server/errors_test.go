@@ -92,7 +92,7 @@ func TestErrorClasses(t *testing.T) {
 		{"/state?p=6barg&t=330C&unit_p=furlong", 400, "unknown_unit", "unit_p"},
 		{"/state?p=6barg", 400, "input_count", ""},
 		{"/state?p=6barg&t=330C&h=3000", 400, "input_count", ""},
-		{"/state?p=6barg&pressure=7barg", 400, "input_count", "pressure"},
+		{"/state?p=6barg&pressure=7barg", 400, "repeated_input", "pressure"},
 		{"/state?p=6barg&t=330C&get=enthalpyy", 400, "unknown_property", "enthalpyy"},
 		{"/state?v=0.1&rho=3", 400, "unsupported_pair", "v,rho"},
 		{"/state?h=3000&x=0.5", 400, "unsupported_pair", "h,x"},
@@ -276,7 +276,7 @@ func clip(s string) string {
 // failingFiller is a workbook filler that fails in the ways a filler can.
 type failingFiller struct{ mode string }
 
-func (f failingFiller) Fill(_ context.Context, in io.Reader, _ int64, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
+func (f failingFiller) Fill(_ context.Context, in io.Reader, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
 	switch f.mode {
 	case "internal":
 		return nil, errors.New("open /var/secret/thing.xlsx: permission denied")

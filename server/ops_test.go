@@ -264,7 +264,7 @@ type countingFiller struct {
 	hold      chan struct{}
 }
 
-func (f *countingFiller) Fill(_ context.Context, in io.Reader, _ int64, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
+func (f *countingFiller) Fill(_ context.Context, in io.Reader, _ string, _ server.WorkbookOptions, out io.Writer) (any, error) {
 	f.mu.Lock()
 	f.now++
 	f.most = max(f.most, f.now)

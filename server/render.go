@@ -59,7 +59,7 @@ func appendNumber(b []byte, v float64) []byte {
 // or "x" for a pure number, the form workbook column headers take.
 func fieldHeader(sym string, set units.Set) string {
 	p, _ := point.Lookup(sym)
-	if u := set.Unit(p.Dim).Name; u != "" {
+	if u := p.Unit(set); u != "" {
 		return p.Symbol + " [" + u + "]"
 	}
 	return p.Symbol

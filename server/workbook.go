@@ -24,7 +24,7 @@ type WorkbookOptions struct {
 }
 
 // WorkbookFiller fills a workbook of test points with property, phase and
-// validity columns. in holds size bytes of the file as uploaded; name is
+// validity columns. in holds the file as uploaded; name is
 // its file name (for its type: .xlsx, or .csv read as a sheet); the filled
 // copy, an .xlsx workbook, is written to out. summary is any
 // JSON-encodable report of what was done. Errors caused by the file or the
@@ -34,7 +34,7 @@ type WorkbookOptions struct {
 // The server does not import the workbook package; the command wires one
 // in (Config.Workbook).
 type WorkbookFiller interface {
-	Fill(ctx context.Context, in io.Reader, size int64, name string, opts WorkbookOptions, out io.Writer) (summary any, err error)
+	Fill(ctx context.Context, in io.Reader, name string, opts WorkbookOptions, out io.Writer) (summary any, err error)
 }
 
 // xlsxType is the media type of an .xlsx workbook.
@@ -82,7 +82,7 @@ func (s *Server) postWorkbook(c *gin.Context) {
 		c.Status(http.StatusServiceUnavailable) // the client gave up waiting
 		return
 	}
-	summary, err := s.cfg.Workbook.Fill(c.Request.Context(), in.reader(), in.size, name,
+	summary, err := s.cfg.Workbook.Fill(c.Request.Context(), in.reader(), name,
 		WorkbookOptions{Point: req.opt, Symbols: req.syms}, out)
 	if err == nil {
 		err = out.rewind()

@@ -95,7 +95,7 @@ func TestNoInputs(t *testing.T) {
 		[]any{"A", "09:00", 41.2, 36.0, "steady"},
 	))
 	err := fillErr(t, data, "log.xlsx", opts())
-	for _, want := range []string{`sheet "Data"`, `Headers seen in row 2`, `A2 "Point"`, `C2 "Pressure (drum)" ("drum" is not a unit of pressure`, `"P [barg]"`, `--map "B=p:barg,C=t:C"`} {
+	for _, want := range []string{`sheet "Data"`, `Headers seen in row 2`, `A2 "Point"`, `C2 "Pressure (drum)" (no unit of pressure in its brackets ("drum")`, `"P [barg]"`, `--map "B=p:barg,C=t:C"`} {
 		if !errors.Is(err, workbook.ErrNoInputs) || !strings.Contains(err.Error(), want) {
 			t.Errorf("error %v; want ErrNoInputs containing %q", err, want)
 		}

@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
-	"unicode"
 
 	"github.com/xuri/excelize/v2"
 
@@ -23,8 +22,12 @@ type inputCol struct {
 	header string
 	sym    string
 	q      fn.Quantity
-	unit   string
+	unit   string // the unit of bare numbers; "" for the unit set's
 	mapped bool
+	// setNote says, for a column whose header gives no unit, in which unit
+	// its bare numbers are read ("p \"Pressure\": read as kPa, unit set
+	// si"); "" otherwise.
+	setNote string
 }
 
 func (c inputCol) letter() string { return colLetter(c.idx) }
@@ -84,108 +87,112 @@ func statusCutoff(row []string) int {
 	return len(row)
 }
 
-// headerInputs returns the input columns a row names.
-func headerInputs(row []string) []inputCol {
-	var out []inputCol
-	for i, s := range row[:statusCutoff(row)] {
-		if m, ok := point.ParseHeader(s); ok {
-			out = append(out, inputCol{idx: i, header: strings.TrimSpace(s), sym: m.Symbol, q: m.Q, unit: m.Unit})
+// ReadColumns reads the input columns of a sheet from its header row and
+// the row under it, with the column map mapText ("" for none) and the unit
+// set of bare numbers, as a fill does (point.ReadTable, with columns at or
+// right of an earlier fill's status column left out). It is the seam
+// through which the command's tests check that a workbook reads its
+// headers as /batch does.
+func ReadColumns(header, below []string, mapText string, set units.Set) (point.Table, error) {
+	var m point.Map
+	if mapText != "" {
+		var err error
+		if m, err = parseMap("", mapText); err != nil {
+			return point.Table{}, err
 		}
 	}
-	return out
+	return readTable("", 1, header, below, m, set)
 }
 
-// findHeader finds the header row among the top rows (top[i] is row i+1):
-// the first with at least two input headers. It returns 0 when there is
-// none.
-func findHeader(top [][]string) (int, []inputCol) {
-	for i, row := range top {
-		if c := headerInputs(row); len(c) >= 2 {
-			return i + 1, c
+// readTable reads the header row (row n of the sheet) and the row under it
+// with point.ReadTable; a header that cannot be read stops the fill.
+func readTable(sheet string, n int, header, below []string, m point.Map, set units.Set) (point.Table, error) {
+	if m == nil {
+		cut := statusCutoff(header)
+		header = header[:cut]
+		if len(below) > cut {
+			below = below[:cut]
 		}
 	}
-	return 0, nil
+	t, err := point.ReadTable(header, below, m, set)
+	if err != nil {
+		msg := err.Error()
+		if sheet != "" {
+			msg = fmt.Sprintf("sheet %q, row %d: %s", sheet, n, msg)
+		}
+		return t, &Error{Kind: ErrAmbiguous, Sheet: sheet, Msg: msg}
+	}
+	return t, nil
 }
 
-// unitsBelow reads the row under the header (row header+1, top[header]) as
-// a row of units when the cells under the input columns read as units of
-// their quantities ("Pressure" over "barg", "T" over "[°C]"): it gives
-// those columns their units and returns the row. Cells under input columns
-// may be blank (the header's unit, or the unit set, holds); any other text
-// under an input column means the row is no row of units, and 0 is
-// returned. A unit under a header that names another unit is an error:
-// the sheet says two things.
-func unitsBelow(sheet string, top [][]string, header int, cols []inputCol) (int, error) {
-	if header <= 0 || header >= len(top) {
-		return 0, nil
-	}
-	below := top[header]
-	cell := func(i int) string {
-		if i < len(below) {
-			return unitText(below[i])
+// findColumns finds the header row of a sheet from its top rows (top[i] is
+// row i+1; headerRow, when not 0, is the row Options.HeaderRow names), the
+// row of units under it, and the input pairs. Without a map, the header
+// row is the first that names two inputs (point.IsHeaderRow), and the
+// columns found pair left to right.
+func findColumns(sheet string, top [][]string, mapText string, headerRow int, set units.Set) (int, int, []pairSpec, error) {
+	var m point.Map
+	if mapText != "" {
+		var err error
+		if m, err = parseMap(sheet, mapText); err != nil {
+			return 0, 0, nil, err
 		}
-		return ""
-	}
-	found := false
-	for _, c := range cols {
-		t := cell(c.idx)
-		if t == "" {
-			continue
+		if headerRow == 0 {
+			headerRow = mapHeaderRow(top, m)
 		}
-		if _, err := units.Lookup(t, point.DimOf(c.q)); err != nil {
-			return 0, nil
-		}
-		found = true
-	}
-	if !found {
-		return 0, nil
-	}
-	for i := range cols {
-		c := &cols[i]
-		t := cell(c.idx)
-		switch {
-		case t == "":
-		case c.unit == "":
-			c.unit = t
-		default:
-			hu, err1 := units.Lookup(c.unit, point.DimOf(c.q))
-			bu, err2 := units.Lookup(t, point.DimOf(c.q))
-			if err1 != nil || err2 != nil || hu.Name != bu.Name {
-				return 0, &Error{Kind: ErrAmbiguous, Sheet: sheet, Msg: fmt.Sprintf(
-					"sheet %q: the header %s%d %q gives the unit %s, the row of units under it %s; remove one",
-					sheet, c.letter(), header, c.header, c.unit, t)}
+	} else if headerRow == 0 {
+		for i, row := range top {
+			if point.IsHeaderRow(row[:statusCutoff(row)]) {
+				headerRow = i + 1
+				break
 			}
 		}
-	}
-	return header + 1, nil
-}
-
-// unitText returns the text of a cell of a row of units without the
-// brackets that often enclose it ("[barg]", "(°C)"), trimmed.
-func unitText(s string) string {
-	s = strings.TrimSpace(s)
-	if len(s) >= 2 && (s[0] == '[' && s[len(s)-1] == ']' || s[0] == '(' && s[len(s)-1] == ')' && enclosed(s)) {
-		s = strings.TrimSpace(s[1 : len(s)-1])
-	}
-	return s
-}
-
-// enclosed reports whether the '(' that starts s is closed by its last
-// byte, not earlier ("(kg·K)" yes, "(kJ)/(kg·K)" no).
-func enclosed(s string) bool {
-	depth := 0
-	for i := 0; i < len(s); i++ {
-		switch s[i] {
-		case '(':
-			depth++
-		case ')':
-			depth--
-			if depth == 0 && i < len(s)-1 {
-				return false
-			}
+		if headerRow == 0 {
+			return 0, 0, nil, &Error{Kind: ErrNoInputs, Sheet: sheet, Msg: noInputsMessage(sheet, top, set)}
 		}
 	}
-	return depth == 0
+	row := func(n int) []string {
+		if n >= 1 && n <= len(top) {
+			return top[n-1]
+		}
+		return nil
+	}
+	var header, below []string
+	if headerRow > 0 {
+		header, below = row(headerRow), row(headerRow+1)
+		if below == nil {
+			below = []string{}
+		}
+	}
+	t, err := readTable(sheet, headerRow, header, below, m, set)
+	if err != nil {
+		return 0, 0, nil, err
+	}
+	cols := make([]inputCol, len(t.Columns))
+	for i, c := range t.Columns {
+		cols[i] = inputCol{idx: c.Index, header: c.Header, sym: c.Symbol, q: c.Q, unit: c.Unit, mapped: c.Mapped}
+		if c.From == point.FromSet {
+			cols[i].setNote = c.Note()
+		}
+	}
+	unitRow := 0
+	if t.UnitRow {
+		unitRow = headerRow + 1
+	}
+	if m != nil {
+		pairs := make([]pairSpec, 0, len(cols)/2)
+		for i := 0; i+1 < len(cols); i += 2 {
+			pairs = append(pairs, pairSpec{in: [2]inputCol{cols[i], cols[i+1]}})
+		}
+		labelPairs(pairs)
+		return headerRow, unitRow, pairs, nil
+	}
+	if len(cols) < 2 {
+		return 0, 0, nil, &Error{Kind: ErrNoInputs, Sheet: sheet, Msg: fmt.Sprintf("sheet %q: row %d does not name two inputs. %s",
+			sheet, headerRow, noInputsMessage(sheet, top, set))}
+	}
+	pairs, err := pairUp(sheet, headerRow, cols)
+	return headerRow, unitRow, pairs, err
 }
 
 // pairUp pairs input columns left to right by the rule of the package doc.
@@ -241,7 +248,7 @@ func exampleMap(cols []inputCol) string {
 
 // noInputsMessage says why no input columns were found on a sheet and how
 // to name them.
-func noInputsMessage(sheet string, top [][]string) string {
+func noInputsMessage(sheet string, top [][]string, set units.Set) string {
 	best, bestN := -1, 0
 	for i, row := range top {
 		n := 0
@@ -261,9 +268,9 @@ func noInputsMessage(sheet string, top [][]string) string {
 		fmt.Fprintf(&b, "sheet %q has no headers in its first %d rows.", sheet, headerScanRows)
 	} else {
 		row := top[best]
-		found := headerInputs(row)
-		if len(found) == 1 {
-			fmt.Fprintf(&b, "sheet %q: only one input column found (%s %q); a state needs two.", sheet, cellName(found[0].idx, best+1), found[0].header)
+		t, _ := point.ReadTable(row[:statusCutoff(row)], nil, nil, set)
+		if found := t.Columns; len(found) == 1 {
+			fmt.Fprintf(&b, "sheet %q: only one input column found (%s %q); a state needs two.", sheet, cellName(found[0].Index, best+1), found[0].Header)
 		} else {
 			fmt.Fprintf(&b, "sheet %q: no two columns name an input.", sheet)
 		}
@@ -293,74 +300,34 @@ func noInputsMessage(sheet string, top [][]string) string {
 	return s
 }
 
-// parseMap reads Options.Map. header is the header row (may be nil) for
-// units the map leaves out.
-func parseMap(sheet, text string) ([]pairSpec, error) {
-	bad := func(format string, args ...any) error {
-		return &Error{Kind: ErrBadOption, Sheet: sheet, Msg: "column map " + strconv.Quote(text) + ": " + fmt.Sprintf(format, args...)}
+// parseMap reads Options.Map with point.ParseMap and checks that each pair
+// fixes a state.
+func parseMap(sheet, text string) (point.Map, error) {
+	m, err := point.ParseMap(text)
+	if err != nil {
+		return nil, &Error{Kind: ErrBadOption, Sheet: sheet, Msg: err.Error()}
 	}
-	var pairs []pairSpec
-	used := map[int]bool{}
-	for _, group := range strings.Split(text, ";") {
-		if strings.TrimSpace(group) == "" {
-			continue
+	for i := 0; i < len(m); i += 2 {
+		if !supportedPair(m[i].Q, m[i+1].Q) {
+			return nil, &Error{Kind: ErrBadOption, Sheet: sheet, Msg: fmt.Sprintf("column map %q: %s and %s do not fix a state; pairs are %s",
+				text, m[i].Symbol, m[i+1].Symbol, pairList)}
 		}
-		items := strings.Split(group, ",")
-		if len(items) != 2 {
-			return nil, bad("%q has %d columns; give two per pair, e.g. B=p:barg,C=t:C", strings.TrimSpace(group), len(items))
-		}
-		var p pairSpec
-		for i, item := range items {
-			col, rest, ok := strings.Cut(strings.TrimSpace(item), "=")
-			if !ok {
-				return nil, bad("%q is not COLUMN=INPUT[:UNIT], e.g. C=t:C", strings.TrimSpace(item))
-			}
-			n, err := excelize.ColumnNameToNumber(strings.TrimSpace(col))
-			if err != nil {
-				return nil, bad("%q is not a column letter", strings.TrimSpace(col))
-			}
-			name, unit, _ := strings.Cut(rest, ":")
-			name, unit = strings.TrimSpace(name), strings.TrimSpace(unit)
-			q, ok := point.InputQuantity(name)
-			if !ok {
-				return nil, bad("%q is not an input; inputs are %s", name, strings.Join(point.InputNames(), ", "))
-			}
-			if unit != "" {
-				if _, err := units.Lookup(unit, point.DimOf(q)); err != nil {
-					return nil, bad("column %s: %v", strings.ToUpper(col), err)
-				}
-			}
-			if used[n-1] {
-				return nil, bad("column %s is given twice", strings.ToUpper(col))
-			}
-			used[n-1] = true
-			p.in[i] = inputCol{idx: n - 1, sym: q.Symbol(), q: q, unit: unit, mapped: true}
-		}
-		if !supportedPair(p.in[0].q, p.in[1].q) {
-			return nil, bad("%s and %s do not fix a state; pairs are %s", p.in[0].sym, p.in[1].sym, pairList)
-		}
-		pairs = append(pairs, p)
 	}
-	if len(pairs) == 0 {
-		return nil, bad("no columns given; write e.g. B=p:barg,C=t:C")
-	}
-	return pairs, nil
+	return m, nil
 }
 
 // mapHeaderRow finds the header row for mapped columns: the first top row
 // where every mapped column holds text that is not a number; 0 if none.
-func mapHeaderRow(top [][]string, pairs []pairSpec) int {
+func mapHeaderRow(top [][]string, m point.Map) int {
 	for i, row := range top {
 		ok := true
-		for _, p := range pairs {
-			for _, c := range p.in {
-				s := ""
-				if c.idx < len(row) {
-					s = strings.TrimSpace(row[c.idx])
-				}
-				if _, err := strconv.ParseFloat(s, 64); s == "" || err == nil {
-					ok = false
-				}
+		for _, c := range m {
+			s := ""
+			if c.Index < len(row) {
+				s = strings.TrimSpace(row[c.Index])
+			}
+			if _, err := strconv.ParseFloat(s, 64); s == "" || err == nil {
+				ok = false
 			}
 		}
 		if ok {
@@ -368,25 +335,6 @@ func mapHeaderRow(top [][]string, pairs []pairSpec) int {
 		}
 	}
 	return 0
-}
-
-// completeMapped fills in the headers of mapped columns and, where the map
-// gives no unit, the unit of a header that names the same quantity.
-func completeMapped(pairs []pairSpec, header []string) {
-	for i := range pairs {
-		for j := range pairs[i].in {
-			c := &pairs[i].in[j]
-			if c.idx < len(header) {
-				c.header = strings.TrimSpace(header[c.idx])
-			}
-			if c.unit == "" {
-				if m, ok := point.ParseHeader(c.header); ok && m.Q == c.q {
-					c.unit = m.Unit
-				}
-			}
-		}
-	}
-	labelPairs(pairs)
 }
 
 // labelPairs names each pair, when there are several, by the words its two
@@ -414,50 +362,4 @@ func labelPairs(pairs []pairSpec) {
 
 // decoration returns the words of a header besides its quantity and unit:
 // "Drum" for "Drum pressure [barg]", "steam" for "T_steam (C)".
-func decoration(header string) string {
-	label := stripUnit(strings.TrimSpace(header))
-	words := strings.FieldsFunc(label, func(r rune) bool { return !unicode.IsLetter(r) && !unicode.IsDigit(r) })
-	var keep []string
-	for _, w := range words {
-		lw := strings.ToLower(w)
-		if _, ok := point.InputQuantity(lw); ok {
-			continue
-		}
-		switch lw {
-		case "press", "pres", "specific", "internal", "energy", "fraction":
-			continue
-		}
-		keep = append(keep, w)
-	}
-	return strings.Join(keep, " ")
-}
-
-// stripUnit cuts a trailing bracketed group (the unit) off a header.
-func stripUnit(s string) string {
-	if s == "" {
-		return s
-	}
-	closing := s[len(s)-1]
-	var opening byte
-	switch closing {
-	case ']':
-		opening = '['
-	case ')':
-		opening = '('
-	default:
-		return s
-	}
-	depth := 0
-	for i := len(s) - 1; i >= 0; i-- {
-		switch s[i] {
-		case closing:
-			depth++
-		case opening:
-			depth--
-			if depth == 0 {
-				return strings.TrimSpace(s[:i])
-			}
-		}
-	}
-	return s
-}
+func decoration(header string) string { return point.HeaderLabel(header) }

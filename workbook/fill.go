@@ -272,7 +272,7 @@ func outputs(add []string, po point.Options) ([]output, []string, error) {
 				outs = append(outs, output{sym: sym, header: "IF97 region", width: 12})
 			default:
 				p, _ := point.Lookup(sym)
-				u := po.Set.Unit(p.Dim).Name
+				u := p.Unit(po.Set)
 				label := u
 				if label == "" {
 					label = "-"
@@ -506,62 +506,9 @@ func (s *sheetRun) read() error {
 
 // decide finds the header row and the input pairs from the top rows.
 func (s *sheetRun) decide(top [][]string) error {
-	if s.opt.Map != "" {
-		pairs, err := parseMap(s.name, s.opt.Map)
-		if err != nil {
-			return err
-		}
-		s.headerRow = s.opt.HeaderRow
-		if s.headerRow == 0 {
-			s.headerRow = mapHeaderRow(top, pairs)
-		}
-		var header []string
-		if s.headerRow > 0 && s.headerRow <= len(top) {
-			header = top[s.headerRow-1]
-		}
-		completeMapped(pairs, header)
-		var cols []inputCol
-		for _, p := range pairs {
-			cols = append(cols, p.in[:]...)
-		}
-		unitRow, err := unitsBelow(s.name, top, s.headerRow, cols)
-		if err != nil {
-			return err
-		}
-		for i := range pairs {
-			copy(pairs[i].in[:], cols[2*i:2*i+2])
-		}
-		s.unitRow = unitRow
-		s.pairs = pairs
-		return nil
-	}
-	var cols []inputCol
-	if s.opt.HeaderRow > 0 {
-		s.headerRow = s.opt.HeaderRow
-		if s.headerRow <= len(top) {
-			cols = headerInputs(top[s.headerRow-1])
-		}
-		if len(cols) < 2 {
-			return &Error{Kind: ErrNoInputs, Sheet: s.name, Msg: fmt.Sprintf("sheet %q: row %d does not name two inputs. %s",
-				s.name, s.headerRow, noInputsMessage(s.name, top))}
-		}
-	} else {
-		s.headerRow, cols = findHeader(top)
-		if s.headerRow == 0 {
-			return &Error{Kind: ErrNoInputs, Sheet: s.name, Msg: noInputsMessage(s.name, top)}
-		}
-	}
-	unitRow, err := unitsBelow(s.name, top, s.headerRow, cols)
-	if err != nil {
-		return err
-	}
-	s.unitRow = unitRow
-	pairs, err := pairUp(s.name, s.headerRow, cols)
-	if err != nil {
-		return err
-	}
-	s.pairs = pairs
-	return nil
+	var err error
+	s.headerRow, s.unitRow, s.pairs, err = findColumns(s.name, top, s.opt.Map, s.opt.HeaderRow, s.opt.Point.Set)
+	return err
 }
 
 // lastHeaderRow is the last row of the header: the row of units under it
@@ -699,6 +646,13 @@ func (s *sheetRun) solveAndWrite(ctx context.Context, ss *SheetSummary) error {
 	ss.UnitRow = s.unitRow
 	if s.unitRow > 0 {
 		ss.Note = joinNote(ss.Note, fmt.Sprintf("units read from row %d, under the header", s.unitRow))
+	}
+	for _, p := range s.pairs {
+		for _, c := range p.in {
+			if c.setNote != "" {
+				ss.Note = joinNote(ss.Note, c.setNote)
+			}
+		}
 	}
 	ss.Pairs = make([]Pair, len(s.pairs))
 	for i, p := range s.pairs {

@@ -163,7 +163,7 @@ type workbookFiller struct {
 	maxCells int64 // most cells of a filled sheet, from --workbook-memory
 }
 
-func (w workbookFiller) Fill(ctx context.Context, in io.Reader, _ int64, name string, opts server.WorkbookOptions, out io.Writer) (any, error) {
+func (w workbookFiller) Fill(ctx context.Context, in io.Reader, name string, opts server.WorkbookOptions, out io.Writer) (any, error) {
 	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, MaxCells: w.maxCells}, out)
 	var we *workbook.Error
 	if errors.As(err, &we) {

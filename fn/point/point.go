@@ -25,6 +25,14 @@ var (
 	// ErrUndefined: a property asked for by name has no value for this
 	// state (cp of a saturated mixture, x of superheated vapour).
 	ErrUndefined = errors.New("not defined for this state")
+	// ErrRepeatedInput: one property given twice ("p" and "pressure", two
+	// columns of pressure in a batch).
+	ErrRepeatedInput = errors.New("input given twice")
+	// ErrHeader: a table header that cannot be read without guessing
+	// ("P [kPa] gauge", "Pressure (drum)" with no unit anywhere).
+	ErrHeader = errors.New("header cannot be read")
+	// ErrMap: a column map that cannot be read.
+	ErrMap = errors.New("bad column map")
 )
 
 // Error is a problem with a point as given: which parameter, what kind,
@@ -95,15 +103,12 @@ type Given struct {
 type Options struct {
 	Set  units.Set // units of bare numbers and of the answer; the zero Set is "si"
 	Patm float64   // atmospheric pressure for gauge units, MPa; 0 is the standard atmosphere
+
+	typed [2]units.Unit // the units the inputs were typed in, for the figures of messages (withTyped)
 }
 
-// Read turns exactly two given inputs into the engine's inputs.
-func Read(given []Given, opt Options) ([2]fn.Input, error) {
-	in, _, err := read(given, opt)
-	return in, err
-}
-
-// read is Read that also returns the unit each input was read in.
+// read turns exactly two given inputs into the engine's inputs, with the
+// unit each was read in.
 func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 	var out [2]fn.Input
 	var us [2]units.Unit
@@ -131,7 +136,7 @@ func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 		out[i], us[i] = fn.Input{Q: q, Value: v}, u
 	}
 	if out[0].Q == out[1].Q {
-		return out, us, &Error{Param: given[1].Name, Kind: ErrInputCount,
+		return out, us, &Error{Param: given[1].Name, Kind: ErrRepeatedInput,
 			Msg: fmt.Sprintf("%s and %s are the same property; give two different ones", given[0].Name, given[1].Name)}
 	}
 	return out, us, nil
@@ -153,10 +158,7 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
 				echo := "given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit)
 				if u := us[i]; ie.HasLimit && u.Name != ie.Unit && !(u.Name == "" && ie.Unit == "fraction") {
-					echo += "; the limit is " + strconv.FormatFloat(u.FromBase(ie.Limit, opt.Patm), 'g', 8, 64)
-					if u.Name != "" {
-						echo += " " + u.Name
-					}
+					echo += "; the limit is " + opt.withTyped(in, us).figureText(in[i].Q, ie.Limit, false)
 				}
 				err = fmt.Errorf("%w (%s)", err, echo)
 				break
@@ -201,22 +203,21 @@ type Answer struct {
 const Formulation = "IAPWS-IF97"
 
 // Symbols checks a list of property symbols (e.g. from get=h,s) and returns
-// them in canonical form; "all" stands for every property. An empty list
-// gives nil, which Render reads as the default properties.
+// them in canonical form; "all" stands for every property. phase and
+// region, which every answer has apart from its fields, are accepted and
+// left out. An empty list gives nil, which Render reads as the default
+// properties; a list of phase or region alone gives an empty list.
 func Symbols(list []string) ([]string, error) {
-	if len(list) == 0 {
-		return nil, nil
-	}
 	out := make([]string, 0, len(list))
+	named := false
 	for _, s := range list {
 		s = strings.TrimSpace(s)
 		if s == "" {
 			continue
 		}
+		named = true
 		if strings.EqualFold(s, "all") {
-			for _, p := range catalogue {
-				out = append(out, p.Symbol)
-			}
+			out = append(out, fieldSymbols()...)
 			continue
 		}
 		p, ok := Lookup(s)
@@ -224,18 +225,33 @@ func Symbols(list []string) ([]string, error) {
 			return nil, &Error{Param: s, Kind: ErrUnknownProperty,
 				Msg: fmt.Sprintf("%s is not a property; properties are %s", quote(s), strings.Join(allSymbols(), ", "))}
 		}
-		out = append(out, p.Symbol)
+		if !p.Always {
+			out = append(out, p.Symbol)
+		}
 	}
-	if len(out) == 0 {
+	if !named {
 		return nil, nil
 	}
 	return out, nil
 }
 
+// allSymbols lists every symbol of the catalogue, phase and region first.
 func allSymbols() []string {
 	var s []string
 	for _, p := range catalogue {
 		s = append(s, p.Symbol)
+	}
+	return s
+}
+
+// fieldSymbols lists the symbols of the properties that are fields of an
+// answer: all but phase and region.
+func fieldSymbols() []string {
+	var s []string
+	for _, p := range catalogue {
+		if !p.Always {
+			s = append(s, p.Symbol)
+		}
 	}
 	return s
 }
@@ -259,16 +275,16 @@ func Render(st *fn.State, syms []string, opt Options) Answer {
 			continue
 		}
 		v, ok := p.get(w)
-		u := opt.Set.Unit(p.Dim)
-		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: u.Name, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
+		label := p.Unit(opt.Set)
+		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: label, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
 		if defaults && !f.Defined {
 			continue
 		}
 		if f.Defined {
-			f.Value = u.FromBase(v, opt.Patm)
+			f.Value = p.fromBase(v, opt.Set.Unit(p.Dim), opt.Patm)
 		}
 		a.Fields = append(a.Fields, f)
-		a.Units[p.Symbol] = u.Name
+		a.Units[p.Symbol] = label
 	}
 	a.Warnings = append(a.Warnings, w.trWarn...)
 	if w.sigmaWarn != "" {

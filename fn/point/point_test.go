@@ -41,16 +41,16 @@ func TestReadErrors(t *testing.T) {
 	}{
 		{[]Given{{Name: "p", Text: "1 MPa"}}, ErrInputCount},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "300 K"}, {Name: "h", Text: "100"}}, ErrInputCount},
-		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "pressure", Text: "2 MPa"}}, ErrInputCount},
+		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "pressure", Text: "2 MPa"}}, ErrRepeatedInput},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "zz", Text: "2"}}, ErrUnknownInput},
 		{[]Given{{Name: "p", Text: "300 C"}, {Name: "t", Text: "300 C"}}, units.ErrWrongDimension},
 		{[]Given{{Name: "p", Text: "1,5 bar"}, {Name: "t", Text: "300 C"}}, units.ErrAmbiguousNumber},
 		{[]Given{{Name: "p", Text: ""}, {Name: "t", Text: "300 C"}}, units.ErrEmpty},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "x", Text: "85"}}, units.ErrQualityRange},
 	} {
-		_, err := Read(tc.given, Options{})
+		_, _, err := read(tc.given, Options{})
 		if !errors.Is(err, tc.kind) {
-			t.Errorf("Read(%v) error %v, want kind %v", tc.given, err, tc.kind)
+			t.Errorf("read(%v) error %v, want kind %v", tc.given, err, tc.kind)
 		}
 	}
 }
@@ -67,6 +67,8 @@ func TestOutOfRangeEchoesTheUsersUnit(t *testing.T) {
 		{[]Given{{Name: "p", Text: "1200 bar"}, {Name: "t", Text: "300 C"}}, "(given as p=1200 bar; the limit is 1000 bar)"},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "3300", Unit: "°C"}}, "(given as t=3300 °C; the limit is 2000 °C)"},
 		{[]Given{{Name: "p", Text: "120 MPa"}, {Name: "t", Text: "600 K"}}, "(given as p=120 MPa)"},
+		// 100 MPa less the standard atmosphere (0.101325 MPa) is 998.98675 bar.
+		{[]Given{{Name: "p", Text: "1100 barg"}, {Name: "t", Text: "300 C"}}, "(given as p=1100 barg; the limit is 998.987 barg)"},
 	} {
 		_, _, err := Solve(tc.given, Options{})
 		if !errors.Is(err, fn.ErrOutOfRange) || !strings.HasSuffix(err.Error(), tc.want) {

@@ -1,19 +1,115 @@
 package point
 
 import (
+	"math"
+	"strings"
+
 	"steamcell/fn"
 	"steamcell/fn/if97"
 	"steamcell/fn/transport"
 	"steamcell/fn/units"
 )
 
-// Property is one output property: its symbol, its name in words, its
-// quantity (for units) and how to read it from a state.
+// Property is one entry of the catalogue: an output property with its
+// symbol, its name in words, its quantity (for units), its kind, where it
+// applies, a one-line description, and how to read it from a state.
 type Property struct {
-	Symbol string
-	Name   string
-	Dim    units.Dim
-	get    func(*view) (float64, bool)
+	Symbol  string
+	Name    string
+	Dim     units.Dim // 0 for text and for pure numbers with no unit at all (region)
+	Diff    bool      // a difference of Dim (superheat): converted without offset or gauge
+	Kind    Kind
+	Applies Applies
+	Doc     string // one line, for the README, doc.go and get= lists
+	Default bool   // in an answer that names no properties
+	Always  bool   // in every answer, apart from the fields (phase, region)
+	get     func(*view) (float64, bool)
+}
+
+// Kind is what a property's value is.
+type Kind uint8
+
+// Kinds of value.
+const (
+	Number Kind = iota + 1
+	Text
+)
+
+func (k Kind) String() string {
+	if k == Text {
+		return "text"
+	}
+	return "number"
+}
+
+// Applies says for which states a property has a value.
+type Applies uint8
+
+// States a property applies to; a property may apply to several.
+const (
+	// SinglePhase: a state of one phase (compressed liquid, superheated
+	// vapour, supercritical fluid; saturated liquid or vapour alone).
+	SinglePhase Applies = 1 << iota
+	// SaturatedPhases: the saturated liquid and vapour of a state on the
+	// saturation line (given x, or a mixture found from other inputs); the
+	// properties that apply to them but not to a mixture as a whole are
+	// those of /saturation.
+	SaturatedPhases
+	// Mixture: a saturated mixture as a whole.
+	Mixture
+)
+
+func (a Applies) String() string {
+	var parts []string
+	for _, x := range []struct {
+		bit  Applies
+		name string
+	}{{SinglePhase, "single phase"}, {SaturatedPhases, "saturated phases"}, {Mixture, "mixture"}} {
+		if a&x.bit != 0 {
+			parts = append(parts, x.name)
+		}
+	}
+	return strings.Join(parts, ", ")
+}
+
+// Unit returns the unit of the property in set: the label and the unit a
+// value converts with. A difference (Diff) of temperature is in K where
+// the set's temperature is K or °C and in °F where it is °F or °R, a
+// degree of difference (R7-97 works in K; 1 K = 1.8 °F of difference,
+// NIST SP 811 (2008) B.8).
+func (p Property) Unit(set units.Set) string {
+	if p.Dim == 0 {
+		return ""
+	}
+	if p.Diff {
+		_, label := diffScale(set.Unit(p.Dim))
+		return label
+	}
+	return set.Unit(p.Dim).Name
+}
+
+// fromBase converts a value of the property from base units to u, the
+// set's unit of its quantity.
+func (p Property) fromBase(v float64, u units.Unit, patm float64) float64 {
+	if p.Diff {
+		f, _ := diffScale(u)
+		return v * f
+	}
+	return u.FromBase(v, patm)
+}
+
+// diffScale returns the factor and the label of a temperature difference
+// in the scale of temperature unit u: 1 and K for K and °C, 1.8 and °F for
+// °F and °R (exact: 1 K = 1.8 °R, NIST SP 811 (2008) B.8), as people write
+// them ("5 K of superheat", "9 °F"). Only temperature differences are in
+// the catalogue.
+func diffScale(u units.Unit) (float64, string) {
+	// The slope of u, read off two of its values; the offset cancels but
+	// for its rounding, which the snap to the two scales removes.
+	if f := u.FromBase(1, 0) - u.FromBase(0, 0); math.Abs(f-1.8) < 1e-9 {
+		return 1.8, "°F"
+	}
+	return 1, "K"
 }
 
 // view is a solved state with its transport properties, computed on first
@@ -78,6 +174,12 @@ func (w *view) surface() (float64, bool) {
 	return w.sigma, w.sigmaOK
 }
 
+// superheat returns T − Tsat(p) of a single-phase state below pc.
+func (w *view) superheat() (float64, bool) {
+	w.sat()
+	return w.st.T - w.tsat, w.tsatOK && w.st.Defined() && w.st.P < if97.Pc
+}
+
 func (w *view) sat() {
 	if w.satDone {
 		return
@@ -128,62 +230,128 @@ func trV(f func(*transport.Result) float64) func(*view) (float64, bool) {
 }
 
 // catalogue lists every output property in the order answers give them.
+// It is the one list: answers, get= and --add, the README symbol table,
+// doc.go, the OpenAPI enum of /state/{property} and the list of /saturation
+// are made from it or checked against it (catalogue_test.go and the
+// server's tests).
 var catalogue = []Property{
-	{"p", "pressure", units.Pressure, always(func(s *fn.State) float64 { return s.P })},
-	{"t", "temperature", units.Temperature, always(func(s *fn.State) float64 { return s.T })},
-	{"v", "specific volume", units.SpecificVolume, always(func(s *fn.State) float64 { return s.V })},
-	{"rho", "density", units.Density, always(func(s *fn.State) float64 { return s.Rho })},
-	{"u", "specific internal energy", units.SpecificEnergy, always(func(s *fn.State) float64 { return s.U })},
-	{"h", "specific enthalpy", units.SpecificEnergy, always(func(s *fn.State) float64 { return s.H })},
-	{"s", "specific entropy", units.SpecificEntropy, always(func(s *fn.State) float64 { return s.S })},
-	{"g", "specific Gibbs energy", units.SpecificEnergy, always(func(s *fn.State) float64 { return s.G })},
-	{"f", "specific Helmholtz energy", units.SpecificEnergy, always(func(s *fn.State) float64 { return s.F })},
-	{"cp", "isobaric heat capacity", units.SpecificEntropy, single(func(p *if97.Props) float64 { return p.Cp })},
-	{"cv", "isochoric heat capacity", units.SpecificEntropy, single(func(p *if97.Props) float64 { return p.Cv })},
-	{"w", "speed of sound", units.Speed, single(func(p *if97.Props) float64 { return p.W })},
-	{"kappa", "isentropic exponent", units.Dimensionless, single(func(p *if97.Props) float64 { return p.Kappa })},
-	{"alphav", "isobaric expansion coefficient", units.InverseTemperature, single(func(p *if97.Props) float64 { return p.AlphaV })},
-	{"kappat", "isothermal compressibility", units.InversePressure, single(func(p *if97.Props) float64 { return p.KappaT })},
-	{"x", "quality", units.Quality, func(w *view) (float64, bool) { return w.st.X, w.st.HasX }},
-	{"tsat", "saturation temperature", units.Temperature, func(w *view) (float64, bool) { w.sat(); return w.tsat, w.tsatOK }},
-	{"psat", "saturation pressure", units.Pressure, func(w *view) (float64, bool) { w.sat(); return w.psat, w.psatOK }},
-	{"vf", "saturated-liquid specific volume", units.SpecificVolume, liq(func(p *if97.Props) float64 { return p.V })},
-	{"vg", "saturated-vapour specific volume", units.SpecificVolume, vap(func(p *if97.Props) float64 { return p.V })},
-	{"rhof", "saturated-liquid density", units.Density, liq(func(p *if97.Props) float64 { return p.Rho })},
-	{"rhog", "saturated-vapour density", units.Density, vap(func(p *if97.Props) float64 { return p.Rho })},
-	{"uf", "saturated-liquid internal energy", units.SpecificEnergy, liq(func(p *if97.Props) float64 { return p.U })},
-	{"ug", "saturated-vapour internal energy", units.SpecificEnergy, vap(func(p *if97.Props) float64 { return p.U })},
-	{"hf", "saturated-liquid enthalpy", units.SpecificEnergy, liq(func(p *if97.Props) float64 { return p.H })},
-	{"hg", "saturated-vapour enthalpy", units.SpecificEnergy, vap(func(p *if97.Props) float64 { return p.H })},
-	{"sf", "saturated-liquid entropy", units.SpecificEntropy, liq(func(p *if97.Props) float64 { return p.S })},
-	{"sg", "saturated-vapour entropy", units.SpecificEntropy, vap(func(p *if97.Props) float64 { return p.S })},
-	{"vfg", "specific volume of evaporation", units.SpecificVolume, latent(func(p *if97.Props) float64 { return p.V })},
-	{"ufg", "internal energy of evaporation", units.SpecificEnergy, latent(func(p *if97.Props) float64 { return p.U })},
-	{"hfg", "enthalpy of evaporation", units.SpecificEnergy, latent(func(p *if97.Props) float64 { return p.H })},
-	{"sfg", "entropy of evaporation", units.SpecificEntropy, latent(func(p *if97.Props) float64 { return p.S })},
-	{"mu", "dynamic viscosity", units.DynamicViscosity, tr(func(r *transport.Result) float64 { return r.Viscosity })},
-	{"k", "thermal conductivity", units.ThermalConductivity, tr(func(r *transport.Result) float64 { return r.Conductivity })},
-	{"nu", "kinematic viscosity", units.KinematicViscosity, tr(func(r *transport.Result) float64 { return r.KinematicViscosity })},
-	{"alpha", "thermal diffusivity", units.ThermalDiffusivity, tr(func(r *transport.Result) float64 { return r.ThermalDiffusivity })},
-	{"pr", "Prandtl number", units.Dimensionless, tr(func(r *transport.Result) float64 { return r.Prandtl })},
-	{"muf", "saturated-liquid dynamic viscosity", units.DynamicViscosity, trL(func(r *transport.Result) float64 { return r.Viscosity })},
-	{"mug", "saturated-vapour dynamic viscosity", units.DynamicViscosity, trV(func(r *transport.Result) float64 { return r.Viscosity })},
-	{"kf", "saturated-liquid thermal conductivity", units.ThermalConductivity, trL(func(r *transport.Result) float64 { return r.Conductivity })},
-	{"kg", "saturated-vapour thermal conductivity", units.ThermalConductivity, trV(func(r *transport.Result) float64 { return r.Conductivity })},
-	{"nuf", "saturated-liquid kinematic viscosity", units.KinematicViscosity, trL(func(r *transport.Result) float64 { return r.KinematicViscosity })},
-	{"nug", "saturated-vapour kinematic viscosity", units.KinematicViscosity, trV(func(r *transport.Result) float64 { return r.KinematicViscosity })},
-	{"prf", "saturated-liquid Prandtl number", units.Dimensionless, trL(func(r *transport.Result) float64 { return r.Prandtl })},
-	{"prg", "saturated-vapour Prandtl number", units.Dimensionless, trV(func(r *transport.Result) float64 { return r.Prandtl })},
-	{"sigma", "surface tension", units.SurfaceTension, func(w *view) (float64, bool) { return w.surface() }},
+	{Symbol: "phase", Name: "phase", Kind: Text, Applies: all, Always: true,
+		Doc: "the phase in words: compressed liquid, saturated mixture, superheated vapour, …"},
+	{Symbol: "region", Name: "IF97 region", Kind: Number, Applies: all, Always: true,
+		Doc: "the region of IAPWS-IF97 whose equation gives the state: 1, 2, 3, 5, or 4 on the saturation line"},
+	{Symbol: "p", Name: "pressure", Dim: units.Pressure, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.P }),
+		Doc: "absolute pressure"},
+	{Symbol: "t", Name: "temperature", Dim: units.Temperature, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.T }),
+		Doc: "temperature"},
+	{Symbol: "v", Name: "specific volume", Dim: units.SpecificVolume, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.V }),
+		Doc: "specific volume"},
+	{Symbol: "rho", Name: "density", Dim: units.Density, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.Rho }),
+		Doc: "density, 1/v"},
+	{Symbol: "u", Name: "specific internal energy", Dim: units.SpecificEnergy, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.U }),
+		Doc: "specific internal energy"},
+	{Symbol: "h", Name: "specific enthalpy", Dim: units.SpecificEnergy, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.H }),
+		Doc: "specific enthalpy"},
+	{Symbol: "s", Name: "specific entropy", Dim: units.SpecificEntropy, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.S }),
+		Doc: "specific entropy"},
+	{Symbol: "g", Name: "specific Gibbs energy", Dim: units.SpecificEnergy, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.G }),
+		Doc: "specific Gibbs energy, h − Ts"},
+	{Symbol: "f", Name: "specific Helmholtz energy", Dim: units.SpecificEnergy, Applies: all, Default: true, get: always(func(s *fn.State) float64 { return s.F }),
+		Doc: "specific Helmholtz energy, u − Ts"},
+	{Symbol: "cp", Name: "isobaric heat capacity", Dim: units.SpecificEntropy, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.Cp }),
+		Doc: "specific isobaric heat capacity"},
+	{Symbol: "cv", Name: "isochoric heat capacity", Dim: units.SpecificEntropy, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.Cv }),
+		Doc: "specific isochoric heat capacity"},
+	{Symbol: "w", Name: "speed of sound", Dim: units.Speed, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.W }),
+		Doc: "speed of sound"},
+	{Symbol: "kappa", Name: "isentropic exponent", Dim: units.Dimensionless, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.Kappa }),
+		Doc: "isentropic exponent, −(v/p)(∂p/∂v) at constant s"},
+	{Symbol: "alphav", Name: "isobaric expansion coefficient", Dim: units.InverseTemperature, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.AlphaV }),
+		Doc: "isobaric cubic expansion coefficient, (1/v)(∂v/∂T) at constant p"},
+	{Symbol: "kappat", Name: "isothermal compressibility", Dim: units.InversePressure, Applies: SinglePhase, Default: true, get: single(func(p *if97.Props) float64 { return p.KappaT }),
+		Doc: "isothermal compressibility, −(1/v)(∂v/∂p) at constant T"},
+	{Symbol: "x", Name: "quality", Dim: units.Quality, Applies: Mixture, Default: true, get: func(w *view) (float64, bool) { return w.st.X, w.st.HasX },
+		Doc: "quality, the vapour mass fraction (on the saturation line)"},
+	{Symbol: "tsat", Name: "saturation temperature", Dim: units.Temperature, Applies: SinglePhase | Mixture, get: func(w *view) (float64, bool) { w.sat(); return w.tsat, w.tsatOK },
+		Doc: "saturation temperature at the state's pressure (up to pc)"},
+	{Symbol: "psat", Name: "saturation pressure", Dim: units.Pressure, Applies: SinglePhase | Mixture, get: func(w *view) (float64, bool) { w.sat(); return w.psat, w.psatOK },
+		Doc: "saturation pressure at the state's temperature (up to Tc)"},
+	{Symbol: "superheat", Name: "degree of superheat", Dim: units.Temperature, Diff: true, Applies: SinglePhase, get: (*view).superheat,
+		Doc: "T − Tsat(p), a temperature difference, below pc (negative for a compressed liquid)"},
+	{Symbol: "subcooling", Name: "degree of subcooling", Dim: units.Temperature, Diff: true, Applies: SinglePhase,
+		get: func(w *view) (float64, bool) { d, ok := w.superheat(); return -d, ok },
+		Doc: "Tsat(p) − T, a temperature difference, below pc (negative for a superheated vapour)"},
+	{Symbol: "vf", Name: "saturated-liquid specific volume", Dim: units.SpecificVolume, Applies: SaturatedPhases, Default: true, get: liq(func(p *if97.Props) float64 { return p.V }),
+		Doc: "specific volume of the saturated liquid"},
+	{Symbol: "vg", Name: "saturated-vapour specific volume", Dim: units.SpecificVolume, Applies: SaturatedPhases, Default: true, get: vap(func(p *if97.Props) float64 { return p.V }),
+		Doc: "specific volume of the saturated vapour"},
+	{Symbol: "rhof", Name: "saturated-liquid density", Dim: units.Density, Applies: SaturatedPhases, Default: true, get: liq(func(p *if97.Props) float64 { return p.Rho }),
+		Doc: "density of the saturated liquid"},
+	{Symbol: "rhog", Name: "saturated-vapour density", Dim: units.Density, Applies: SaturatedPhases, Default: true, get: vap(func(p *if97.Props) float64 { return p.Rho }),
+		Doc: "density of the saturated vapour"},
+	{Symbol: "uf", Name: "saturated-liquid internal energy", Dim: units.SpecificEnergy, Applies: SaturatedPhases, Default: true, get: liq(func(p *if97.Props) float64 { return p.U }),
+		Doc: "specific internal energy of the saturated liquid"},
+	{Symbol: "ug", Name: "saturated-vapour internal energy", Dim: units.SpecificEnergy, Applies: SaturatedPhases, Default: true, get: vap(func(p *if97.Props) float64 { return p.U }),
+		Doc: "specific internal energy of the saturated vapour"},
+	{Symbol: "hf", Name: "saturated-liquid enthalpy", Dim: units.SpecificEnergy, Applies: SaturatedPhases, Default: true, get: liq(func(p *if97.Props) float64 { return p.H }),
+		Doc: "specific enthalpy of the saturated liquid"},
+	{Symbol: "hg", Name: "saturated-vapour enthalpy", Dim: units.SpecificEnergy, Applies: SaturatedPhases, Default: true, get: vap(func(p *if97.Props) float64 { return p.H }),
+		Doc: "specific enthalpy of the saturated vapour"},
+	{Symbol: "sf", Name: "saturated-liquid entropy", Dim: units.SpecificEntropy, Applies: SaturatedPhases, Default: true, get: liq(func(p *if97.Props) float64 { return p.S }),
+		Doc: "specific entropy of the saturated liquid"},
+	{Symbol: "sg", Name: "saturated-vapour entropy", Dim: units.SpecificEntropy, Applies: SaturatedPhases, Default: true, get: vap(func(p *if97.Props) float64 { return p.S }),
+		Doc: "specific entropy of the saturated vapour"},
+	{Symbol: "vfg", Name: "specific volume of evaporation", Dim: units.SpecificVolume, Applies: SaturatedPhases, get: latent(func(p *if97.Props) float64 { return p.V }),
+		Doc: "vg − vf"},
+	{Symbol: "ufg", Name: "internal energy of evaporation", Dim: units.SpecificEnergy, Applies: SaturatedPhases, get: latent(func(p *if97.Props) float64 { return p.U }),
+		Doc: "ug − uf"},
+	{Symbol: "hfg", Name: "enthalpy of evaporation", Dim: units.SpecificEnergy, Applies: SaturatedPhases, get: latent(func(p *if97.Props) float64 { return p.H }),
+		Doc: "hg − hf, the latent heat"},
+	{Symbol: "sfg", Name: "entropy of evaporation", Dim: units.SpecificEntropy, Applies: SaturatedPhases, get: latent(func(p *if97.Props) float64 { return p.S }),
+		Doc: "sg − sf"},
+	{Symbol: "mu", Name: "dynamic viscosity", Dim: units.DynamicViscosity, Applies: SinglePhase, get: tr(func(r *transport.Result) float64 { return r.Viscosity }),
+		Doc: "dynamic viscosity (IAPWS R12-08)"},
+	{Symbol: "k", Name: "thermal conductivity", Dim: units.ThermalConductivity, Applies: SinglePhase, get: tr(func(r *transport.Result) float64 { return r.Conductivity }),
+		Doc: "thermal conductivity (IAPWS R15-11)"},
+	{Symbol: "nu", Name: "kinematic viscosity", Dim: units.KinematicViscosity, Applies: SinglePhase, get: tr(func(r *transport.Result) float64 { return r.KinematicViscosity }),
+		Doc: "kinematic viscosity, mu/rho"},
+	{Symbol: "alpha", Name: "thermal diffusivity", Dim: units.ThermalDiffusivity, Applies: SinglePhase, get: tr(func(r *transport.Result) float64 { return r.ThermalDiffusivity }),
+		Doc: "thermal diffusivity, k/(rho cp)"},
+	{Symbol: "pr", Name: "Prandtl number", Dim: units.Dimensionless, Applies: SinglePhase, get: tr(func(r *transport.Result) float64 { return r.Prandtl }),
+		Doc: "Prandtl number, mu cp/k"},
+	{Symbol: "muf", Name: "saturated-liquid dynamic viscosity", Dim: units.DynamicViscosity, Applies: SaturatedPhases, get: trL(func(r *transport.Result) float64 { return r.Viscosity }),
+		Doc: "dynamic viscosity of the saturated liquid"},
+	{Symbol: "mug", Name: "saturated-vapour dynamic viscosity", Dim: units.DynamicViscosity, Applies: SaturatedPhases, get: trV(func(r *transport.Result) float64 { return r.Viscosity }),
+		Doc: "dynamic viscosity of the saturated vapour"},
+	{Symbol: "kf", Name: "saturated-liquid thermal conductivity", Dim: units.ThermalConductivity, Applies: SaturatedPhases, get: trL(func(r *transport.Result) float64 { return r.Conductivity }),
+		Doc: "thermal conductivity of the saturated liquid"},
+	{Symbol: "kg", Name: "saturated-vapour thermal conductivity", Dim: units.ThermalConductivity, Applies: SaturatedPhases, get: trV(func(r *transport.Result) float64 { return r.Conductivity }),
+		Doc: "thermal conductivity of the saturated vapour"},
+	{Symbol: "nuf", Name: "saturated-liquid kinematic viscosity", Dim: units.KinematicViscosity, Applies: SaturatedPhases, get: trL(func(r *transport.Result) float64 { return r.KinematicViscosity }),
+		Doc: "kinematic viscosity of the saturated liquid"},
+	{Symbol: "nug", Name: "saturated-vapour kinematic viscosity", Dim: units.KinematicViscosity, Applies: SaturatedPhases, get: trV(func(r *transport.Result) float64 { return r.KinematicViscosity }),
+		Doc: "kinematic viscosity of the saturated vapour"},
+	{Symbol: "prf", Name: "saturated-liquid Prandtl number", Dim: units.Dimensionless, Applies: SaturatedPhases, get: trL(func(r *transport.Result) float64 { return r.Prandtl }),
+		Doc: "Prandtl number of the saturated liquid"},
+	{Symbol: "prg", Name: "saturated-vapour Prandtl number", Dim: units.Dimensionless, Applies: SaturatedPhases, get: trV(func(r *transport.Result) float64 { return r.Prandtl }),
+		Doc: "Prandtl number of the saturated vapour"},
+	{Symbol: "sigma", Name: "surface tension", Dim: units.SurfaceTension, Applies: SinglePhase | SaturatedPhases, get: func(w *view) (float64, bool) { return w.surface() },
+		Doc: "surface tension of water against its vapour at T (IAPWS R1-76), up to Tc"},
 }
 
-// thermo is the number of leading catalogue entries that are thermodynamic
-// (no transport): the default answer.
-var defaultSymbols = []string{"p", "t", "v", "rho", "u", "h", "s", "g", "f", "cp", "cv", "w",
-	"kappa", "alphav", "kappat", "x", "vf", "vg", "rhof", "rhog", "uf", "ug", "hf", "hg", "sf", "sg"}
+// all: a property every state has.
+const all = SinglePhase | SaturatedPhases | Mixture
 
-// Properties returns the catalogue of output properties.
-func Properties() []Property { return append([]Property(nil), catalogue...) }
+// defaultSymbols are the properties an answer gives when none are asked
+// for: the thermodynamic ones (transport costs as much again; ask for it).
+var defaultSymbols = func() []string {
+	var out []string
+	for _, p := range catalogue {
+		if p.Default {
+			out = append(out, p.Symbol)
+		}
+	}
+	return out
+}()
 
 // Lookup returns the property of a symbol (case-insensitive).
 func Lookup(sym string) (Property, bool) {
