@@ -148,7 +148,12 @@ type batchRow struct {
 	err   error         // why the row cannot be solved as read
 	ok    bool          // answered with "ok"
 	out   []byte        // the answer row, ready to write
-	tmp   []string      // scratch cells
+
+	// Kept from row to row, so that a row costs no allocation.
+	line   []byte        // CSV: the line the cells view
+	st     fn.State      // the state solved
+	ans    point.Answer  // its answer
+	inputs []point.Input // its inputs as understood
 }
 
 func (r *batchRow) size() int {
@@ -386,12 +391,14 @@ type batchOut struct {
 	header []string // the CSV body's header; nil for a JSON body
 	delim  rune     // CSV delimiter of the answer
 	keys   [][]byte // JSON keys of the header's columns, for "given"
+	plan   *point.Plan
 }
 
 func (o *batchOut) prepare() {
 	if o.delim == 0 {
 		o.delim = ','
 	}
+	o.plan = point.NewPlan(o.syms, o.opt)
 	seen := map[string]int{}
 	for _, h := range o.header {
 		k := h
@@ -463,15 +470,13 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 // call for different rows at once.
 func (s *Server) answer(o *batchOut, r *batchRow) {
 	r.out = r.out[:0]
-	var st fn.State
 	var in [2]fn.Input
 	err := r.err
 	if err == nil {
-		st, in, err = point.Solve(r.given, o.opt)
+		r.st, in, err = point.Solve(r.given, o.opt)
 	}
-	var ans point.Answer
 	if err == nil {
-		ans = point.Render(&st, o.syms, o.opt)
+		o.plan.Fill(&r.st, &r.ans)
 	}
 	r.ok = err == nil
 	var p problem
@@ -482,22 +487,31 @@ func (s *Server) answer(o *batchOut, r *batchRow) {
 		}
 	}
 	if o.format == "csv" {
-		cells := r.tmp[:0]
+		b := r.out
 		if o.header != nil {
-			cells = append(cells, r.cells[:min(len(r.cells), len(o.header))]...)
-			for len(cells) < len(o.header) {
-				cells = append(cells, "")
+			for i := range o.header {
+				if i > 0 {
+					b = utf8.AppendRune(b, o.delim)
+				}
+				if i < len(r.cells) {
+					b = point.AppendCSVCell(b, r.cells[i], o.delim)
+				}
 			}
 		} else {
-			cells = append(cells, string(r.raw))
+			b = point.AppendCSVCell(b, r.raw, o.delim)
 		}
+		b = utf8.AppendRune(b, o.delim)
 		if err != nil {
-			cells = emptyAnswerCells(append(cells, p.Msg), o.syms)
+			b = point.AppendCSVCell(b, p.Msg, o.delim)
+			for range len(o.syms) + 3 {
+				b = utf8.AppendRune(b, o.delim)
+			}
 		} else {
-			cells = answerCells(append(cells, "ok"), &ans)
+			b = append(b, "ok"...)
+			b = utf8.AppendRune(b, o.delim)
+			b = r.ans.AppendCSV(b, o.delim)
 		}
-		r.tmp = cells
-		r.out = appendCSVRow(r.out, cells, o.delim)
+		r.out = append(b, '\n')
 		return
 	}
 	b := r.out
@@ -531,7 +545,8 @@ func (s *Server) answer(o *batchOut, r *batchRow) {
 	}
 	b = append(b, ',')
 	start := len(b)
-	b = ans.AppendJSON(b, point.Inputs(in, o.opt), "")
+	r.inputs = point.AppendInputs(r.inputs[:0], in, o.opt)
+	b = r.ans.AppendJSON(b, r.inputs, "")
 	// Drop the answer's opening brace: its fields continue this object.
 	r.out = append(b[:start], b[start+1:]...)
 }
@@ -665,31 +680,14 @@ func (s *Server) solveChunk(o *batchOut, rows []batchRow) {
 	wg.Wait()
 }
 
-// appendCSVRow writes cells as one CSV line, quoting as RFC 4180 and
-// encoding/csv do: a cell with the delimiter, a quote, a line break or a
-// leading space is quoted, quotes doubled.
+// appendCSVRow writes cells as one CSV line, quoted as point.AppendCSVCell
+// quotes.
 func appendCSVRow(b []byte, cells []string, delim rune) []byte {
 	for i, c := range cells {
 		if i > 0 {
 			b = utf8.AppendRune(b, delim)
 		}
-		if !csvNeedsQuotes(c, delim) {
-			b = append(b, c...)
-			continue
-		}
-		b = append(b, '"')
-		b = append(b, strings.ReplaceAll(c, `"`, `""`)...)
-		b = append(b, '"')
+		b = point.AppendCSVCell(b, c, delim)
 	}
 	return append(b, '\n')
-}
-
-func csvNeedsQuotes(c string, delim rune) bool {
-	if c == "" {
-		return false
-	}
-	if c[0] == ' ' || c[0] == '\t' || c == `\.` {
-		return true
-	}
-	return strings.ContainsRune(c, delim) || strings.ContainsAny(c, "\"\r\n")
 }
