@@ -14,6 +14,7 @@ import (
 	"sync"
 	"time"
 	"unicode/utf8"
+	"unsafe"
 
 	"github.com/gin-gonic/gin"
 
@@ -175,6 +176,8 @@ type rowSource interface {
 // csvSource reads a CSV body.
 type csvSource struct {
 	r      *csv.Reader
+	br     *bufio.Reader // what r reads from, for the lines read without it
+	lines  int           // lines read without r, which r does not count
 	lim    *rowLimit
 	header []string
 	inputs []csvInput
@@ -199,7 +202,7 @@ func newCSVSource(br *bufio.Reader, lim *rowLimit) (*csvSource, error) {
 	if err != nil {
 		return nil, errorf(ErrBadBody, "", "the header line is not CSV: %v", err)
 	}
-	cs := &csvSource{r: r, lim: lim, header: append([]string(nil), rec...)}
+	cs := &csvSource{r: r, br: br, lim: lim, header: append([]string(nil), rec...)}
 	cs.header[0] = strings.TrimPrefix(cs.header[0], "\ufeff")
 	var names []string
 	for i, h := range cs.header {
@@ -253,37 +256,107 @@ func sniffDelimiter(br *bufio.Reader) rune {
 
 func (cs *csvSource) next(row *batchRow) error {
 	cs.lim.reset()
-	rec, err := cs.r.Read()
 	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
-	var pe *csv.ParseError
-	switch {
-	case err == io.EOF:
-		return io.EOF
-	case errors.As(err, &pe):
-		row.err = errorf(ErrBadBody, "", "line %d is not CSV: %v", pe.Line, pe.Err)
-		return nil
-	case err != nil:
-		return err
+	if !cs.plainLine(row) {
+		rec, err := cs.r.Read()
+		var pe *csv.ParseError
+		switch {
+		case err == io.EOF:
+			return io.EOF
+		case errors.As(err, &pe):
+			row.err = errorf(ErrBadBody, "", "line %d is not CSV: %v", pe.Line+cs.lines, pe.Err)
+			return nil
+		case err != nil:
+			return err
+		}
+		row.cells = append(row.cells, rec...)
 	}
-	row.cells = append(row.cells, rec...)
-	if len(rec) > len(cs.header) {
-		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(rec), len(cs.header))
+	if len(row.cells) > len(cs.header) {
+		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(row.cells), len(cs.header))
 		return nil
 	}
 	for _, in := range cs.inputs {
 		text := ""
-		if in.col < len(rec) {
-			text = rec[in.col]
+		if in.col < len(row.cells) {
+			text = row.cells[in.col]
 		}
 		row.given = append(row.given, point.Given{Name: in.sym, Text: text, Unit: in.unit})
 	}
 	return nil
 }
 
+// plainLine reads the next record into row when it is a line without
+// quotes that the buffer holds whole: the common line, which it splits at
+// the delimiter as encoding/csv would, but into the row's own memory with
+// no allocation (csv.Reader makes a string per record). Empty lines are
+// skipped as encoding/csv skips them. It reports false, having read
+// nothing of the record, for everything else (quotes, a line longer than
+// the buffer, the last line without a line break), which cs.r reads.
+func (cs *csvSource) plainLine(row *batchRow) bool {
+	delim := byte(cs.r.Comma)
+	for {
+		if cs.br.Buffered() == 0 {
+			if _, err := cs.br.Peek(1); err != nil {
+				return false
+			}
+		}
+		buf, _ := cs.br.Peek(cs.br.Buffered())
+		end := bytes.IndexByte(buf, '\n')
+		if end < 0 {
+			return false
+		}
+		line := buf[:end]
+		if bytes.IndexByte(line, '"') >= 0 {
+			return false
+		}
+		line = bytes.TrimSuffix(line, []byte{'\r'})
+		if len(line) == 0 {
+			_, _ = cs.br.Discard(end + 1)
+			cs.lines++
+			continue
+		}
+		row.line = append(row.line[:0], line...)
+		_, _ = cs.br.Discard(end + 1)
+		cs.lines++
+		rest := row.line
+		for {
+			i := bytes.IndexByte(rest, delim)
+			if i < 0 {
+				row.cells = append(row.cells, bytesView(rest))
+				return true
+			}
+			row.cells = append(row.cells, bytesView(rest[:i]))
+			rest = rest[i+1:]
+		}
+	}
+}
+
+// bytesView is b as a string without a copy. The cells of a row view the
+// row's own buffers, which are written again only when the row is read
+// anew, after its answer has been written; nothing keeps a cell longer
+// (the units cache copies what it keeps, error messages copy the text).
+func bytesView(b []byte) string { return unsafe.String(unsafe.SliceData(b), len(b)) }
+
 // jsonSource reads a JSON array of objects.
 type jsonSource struct {
 	dec *json.Decoder
 	lim *rowLimit
+
+	// Kept from row to row, so that a row costs no allocation.
+	elem json.RawMessage
+	buf  bytes.Buffer
+	keys [8]jsonKey // the keys met last, read as headers
+	turn int        // the entry of keys to replace next
+}
+
+// jsonKey is a key of a JSON row read as a header, remembered: every row
+// gives the same few keys.
+type jsonKey struct {
+	used bool
+	key  string
+	m    point.HeaderMatch
+	ok   bool
+	why  string
 }
 
 func newJSONSource(br *bufio.Reader, lim *rowLimit) (*jsonSource, error) {
@@ -313,16 +386,15 @@ func (js *jsonSource) next(row *batchRow) error {
 		}
 		return io.EOF
 	}
-	var raw json.RawMessage
-	if err := js.dec.Decode(&raw); err != nil {
+	if err := js.dec.Decode(&js.elem); err != nil {
 		return jsonStop(err, row.n)
 	}
-	var b bytes.Buffer
-	if err := json.Compact(&b, raw); err != nil {
+	js.buf.Reset()
+	if err := json.Compact(&js.buf, js.elem); err != nil {
 		return jsonStop(err, row.n)
 	}
-	row.raw = append(row.raw, b.Bytes()...)
-	row.err = readJSONRow(row.raw, row)
+	row.raw = append(row.raw, js.buf.Bytes()...)
+	row.err = js.readRow(row.raw, row)
 	return nil
 }
 
@@ -338,49 +410,115 @@ func jsonStop(err error, n int) error {
 	return errorf(ErrBadBody, "", "row %d is not valid JSON: %v", n, err)
 }
 
-// readJSONRow reads the inputs of one element, keeping the order of its
-// keys. Keys are read like CSV headers ("p", "T", "Drum pressure [barg]");
-// keys that name no input are passed through.
-func readJSONRow(raw []byte, row *batchRow) error {
-	d := json.NewDecoder(bytes.NewReader(raw))
-	d.UseNumber()
-	if tok, _ := d.Token(); tok != json.Delim('{') {
+// readRow reads the inputs of one element, compact and valid JSON as the
+// decoder gives it, keeping the order of its keys. Keys are read like CSV
+// headers ("p", "T", "Drum pressure [barg]"); keys that name no input are
+// passed through. The texts of the inputs view raw.
+func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
+	if len(raw) == 0 || raw[0] != '{' {
 		return errorf(ErrBadBody, "", `the row is not a JSON object; give one like {"p":"6 barg","t":"330C"}`)
 	}
-	for d.More() {
-		kt, err := d.Token()
-		if err != nil {
-			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
+	for i := 1; raw[i] != '}'; {
+		if raw[i] == ',' {
+			i++
 		}
-		key, _ := kt.(string)
-		m, ok := point.ParseHeader(key)
-		if !ok {
-			if why := point.ExplainHeader(key); why != "" {
-				return errorf(ErrBadBody, clean(key, 40), "key %s: %s", clean(key, 40), why)
+		key, n := jsonText(raw[i:])
+		i += n + 1 // and the colon
+		k := js.header(key)
+		end := i + jsonValueLen(raw[i:])
+		if !k.ok {
+			if k.why != "" {
+				return errorf(ErrBadBody, clean(k.key, 40), "key %s: %s", clean(k.key, 40), k.why)
 			}
-			var skip json.RawMessage
-			if err := d.Decode(&skip); err != nil {
-				return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
-			}
+			i = end
 			continue
 		}
-		vt, err := d.Token()
-		if err != nil {
-			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
-		}
 		var text string
-		switch v := vt.(type) {
-		case string:
-			text = v
-		case json.Number:
-			text = v.String()
-		case nil:
+		switch raw[i] {
+		case '"':
+			text, _ = jsonText(raw[i:end])
+		case 'n':
+		case '-', '0', '1', '2', '3', '4', '5', '6', '7', '8', '9':
+			text = bytesView(raw[i:end])
 		default:
-			return errorf(ErrBadBody, clean(key, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(key, 40))
+			return errorf(ErrBadBody, clean(k.key, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(k.key, 40))
 		}
-		row.given = append(row.given, point.Given{Name: m.Symbol, Text: text, Unit: m.Unit})
+		row.given = append(row.given, point.Given{Name: k.m.Symbol, Text: text, Unit: k.m.Unit})
+		i = end
 	}
 	return nil
+}
+
+// header reads key as a header, through the keys met last.
+func (js *jsonSource) header(key string) *jsonKey {
+	for i := range js.keys {
+		if k := &js.keys[i]; k.used && k.key == key {
+			return k
+		}
+	}
+	k := &js.keys[js.turn]
+	js.turn = (js.turn + 1) % len(js.keys)
+	*k = jsonKey{key: strings.Clone(key), used: true}
+	k.m, k.ok = point.ParseHeader(k.key)
+	if !k.ok {
+		k.why = point.ExplainHeader(k.key)
+	}
+	return k
+}
+
+// jsonText reads the JSON string at the start of b (valid JSON): its text,
+// viewing b unless it has escapes, and its length in b.
+func jsonText(b []byte) (string, int) {
+	n, escaped := jsonStringLen(b)
+	if !escaped {
+		return bytesView(b[1 : n-1]), n
+	}
+	var s string
+	_ = json.Unmarshal(b[:n], &s)
+	return s, n
+}
+
+// jsonStringLen is the length of the JSON string at the start of b (valid
+// JSON), quotes included, and whether it must be decoded: it has escapes,
+// or text that is not UTF-8, which decoding turns into U+FFFD.
+func jsonStringLen(b []byte) (int, bool) {
+	escaped, ascii := false, true
+	i := 1
+	for ; b[i] != '"'; i++ {
+		switch {
+		case b[i] == '\\':
+			escaped = true
+			i++
+		case b[i] >= utf8.RuneSelf:
+			ascii = false
+		}
+	}
+	return i + 1, escaped || !ascii && !utf8.Valid(b[1:i])
+}
+
+// jsonValueLen is the length of the JSON value at the start of b (compact
+// and valid JSON): up to the comma or brace that ends it.
+func jsonValueLen(b []byte) int {
+	depth := 0
+	for i := 0; i < len(b); i++ {
+		switch b[i] {
+		case '"':
+			n, _ := jsonStringLen(b[i:])
+			i += n - 1
+		case '{', '[':
+			depth++
+		case '}', ']':
+			if depth == 0 {
+				return i
+			}
+			depth--
+		case ',':
+			if depth == 0 {
+				return i
+			}
+		}
+	}
+	return len(b)
 }
 
 // batchOut writes the answer of a batch.

@@ -142,6 +142,9 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 		return fn.State{}, in, err
 	}
 	st, err := fn.Solve(in[0], in[1])
+	if err == nil {
+		return st, in, nil // before errors.As, whose target costs an allocation
+	}
 	var ie *fn.InputError
 	if errors.As(err, &ie) && !ie.Pair {
 		// The engine speaks in base units; echo the input as the user gave
