@@ -152,8 +152,7 @@ type batchRow struct {
 
 	// Kept from row to row, so that a row costs no allocation.
 	line   []byte        // CSV: the line the cells view
-	st     fn.State      // the state solved
-	ans    point.Answer  // its answer
+	ans    point.Answer  // the answer
 	inputs []point.Input // its inputs as understood
 }
 
@@ -611,10 +610,7 @@ func (s *Server) answer(o *batchOut, r *batchRow) {
 	var in [2]fn.Input
 	err := r.err
 	if err == nil {
-		r.st, in, err = point.Solve(r.given, o.opt)
-	}
-	if err == nil {
-		o.plan.Fill(&r.st, &r.ans)
+		in, err = o.plan.Row(r.given, &r.ans)
 	}
 	r.ok = err == nil
 	var p problem

@@ -83,6 +83,23 @@ func (pl *Plan) Fill(st *fn.State, a *Answer) {
 	a.w.st = nil
 }
 
+// Row solves the point given (as Solve does, in the plan's options) and
+// fills a with its answer: the one call per row of a batch, of a page's
+// bulk request or of a workbook writer. The state is kept in a (State), so
+// that a row costs no allocation. On an error a is left as it was.
+func (pl *Plan) Row(given []Given, a *Answer) ([2]fn.Input, error) {
+	st, in, err := Solve(given, pl.opt)
+	if err != nil {
+		return in, err
+	}
+	a.st = st
+	pl.Fill(&a.st, a)
+	return in, nil
+}
+
+// State returns the state that Row last solved for a.
+func (a *Answer) State() *fn.State { return &a.st }
+
 // lookupIndex returns the catalogue index of a symbol (case-insensitive).
 func lookupIndex(sym string) (int, bool) {
 	for i := range catalogue {

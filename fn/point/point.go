@@ -199,8 +199,9 @@ type Answer struct {
 	Warnings []string
 	Set      string // name of the unit set
 
-	w      view   // the state being written, with its transport properties
-	joined []byte // scratch for the warnings of a CSV cell
+	st     fn.State // the state Plan.Row solved
+	w      view     // the state being written, with its transport properties
+	joined []byte   // scratch for the warnings of a CSV cell
 }
 
 // Formulation is the name of the formulation every answer comes from.
