@@ -59,13 +59,18 @@ func NewPlan(syms []string, opt Options) *Plan {
 // fields with Defined false, unless the plan gives the defaults, which
 // leave them out. a keeps no reference to st.
 func (pl *Plan) Fill(st *fn.State, a *Answer) {
-	a.w = view{st: st, trWarn: a.w.trWarn[:0]}
+	// Reset the flags of what view computes on first use, not the whole
+	// of it: a value is read only where its flag says it is set.
+	w := &a.w
+	w.st, w.trDone, w.sigmaDone, w.satDone = st, false, false, false
+	w.trOK, w.trLOK, w.trVOK, w.sigmaOK, w.tsatOK, w.psatOK = false, false, false, false, false, false
+	w.trWarn, w.sigmaWarn = w.trWarn[:0], ""
 	a.Phase, a.Region, a.Set = st.Phase.String(), st.Region, pl.set
 	a.Fields = a.Fields[:0]
 	a.Warnings = append(a.Warnings[:0], st.Warnings...)
 	for i := range pl.cols {
 		c := &pl.cols[i]
-		v, ok := c.prop.get(&a.w)
+		v, ok := c.prop.get(w)
 		f := Field{Symbol: c.prop.Symbol, Name: c.prop.Name, Unit: c.unit.Name,
 			Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0), idx: c.idx}
 		if pl.defaults && !f.Defined {
@@ -76,11 +81,11 @@ func (pl *Plan) Fill(st *fn.State, a *Answer) {
 		}
 		a.Fields = append(a.Fields, f)
 	}
-	a.Warnings = append(a.Warnings, a.w.trWarn...)
-	if a.w.sigmaWarn != "" {
-		a.Warnings = append(a.Warnings, a.w.sigmaWarn)
+	a.Warnings = append(a.Warnings, w.trWarn...)
+	if w.sigmaWarn != "" {
+		a.Warnings = append(a.Warnings, w.sigmaWarn)
 	}
-	a.w.st = nil
+	w.st = nil
 }
 
 // Row solves the point given (as Solve does, in the plan's options) and
