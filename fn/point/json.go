@@ -63,37 +63,7 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 		b = append(b, ':')
 		b = AppendNumber(b, f.Value)
 	}
-	b = append(b, `,"units":{`...)
-	first := true
-	add := func(sym, unit string) {
-		if !first {
-			b = append(b, ',')
-		}
-		first = false
-		b = AppendJSONString(b, sym)
-		b = append(b, ':')
-		b = AppendJSONString(b, unit)
-	}
-	// Each symbol once: an input first, then a field by its place in the
-	// catalogue (get=h,h asks twice for one property).
-	var seen [(maxProps + 63) / 64]uint64
-	for i, in := range inputs {
-		if !inputBefore(inputs[:i], in.Symbol) {
-			add(in.Symbol, in.Unit)
-		}
-	}
-	for _, f := range a.Fields {
-		word, bit := f.idx/64, uint64(1)<<(f.idx%64)
-		if !f.Defined || seen[word]&bit != 0 || inputBefore(inputs, f.Symbol) {
-			continue
-		}
-		seen[word] |= bit
-		add(f.Symbol, f.Unit)
-	}
-	b = append(b, `},"unit_set":`...)
-	b = AppendJSONString(b, a.Set)
-	b = append(b, `,"formulation":`...)
-	b = AppendJSONString(b, Formulation)
+	b = a.appendUnits(b, inputs)
 	b = append(b, `,"warnings":[`...)
 	for i, w := range a.Warnings {
 		if i > 0 {
@@ -121,6 +91,74 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 		b = AppendJSONString(b, caution)
 	}
 	return append(b, '}')
+}
+
+// appendUnits writes "units" (each symbol once: an input first, then a
+// field by its place in the catalogue, as get=h,h asks twice for one
+// property), "unit_set" and "formulation". They change only with the
+// inputs and with which fields have a value, so an Answer that a Plan
+// fills keeps the last of them written and copies it.
+func (a *Answer) appendUnits(b []byte, inputs []Input) []byte {
+	c := &a.units
+	key := unitsKey{plan: a.plan, mask: a.mask, set: a.Set, n: len(inputs)}
+	for i := range min(len(inputs), len(key.in)) {
+		key.in[i] = [2]string{inputs[i].Symbol, inputs[i].Unit}
+	}
+	cacheable := a.plan != nil && len(a.plan.cols) <= maxProps && len(inputs) <= len(key.in)
+	if cacheable && c.ok && c.key == key {
+		return append(b, c.b...)
+	}
+	start := len(b)
+	b = append(b, `,"units":{`...)
+	first := true
+	add := func(sym, unit string) {
+		if !first {
+			b = append(b, ',')
+		}
+		first = false
+		b = AppendJSONString(b, sym)
+		b = append(b, ':')
+		b = AppendJSONString(b, unit)
+	}
+	var seen [(maxProps + 63) / 64]uint64
+	for i, in := range inputs {
+		if !inputBefore(inputs[:i], in.Symbol) {
+			add(in.Symbol, in.Unit)
+		}
+	}
+	for _, f := range a.Fields {
+		word, bit := f.idx/64, uint64(1)<<(f.idx%64)
+		if !f.Defined || seen[word]&bit != 0 || inputBefore(inputs, f.Symbol) {
+			continue
+		}
+		seen[word] |= bit
+		add(f.Symbol, f.Unit)
+	}
+	b = append(b, `},"unit_set":`...)
+	b = AppendJSONString(b, a.Set)
+	b = append(b, `,"formulation":`...)
+	b = AppendJSONString(b, Formulation)
+	if cacheable {
+		c.key, c.ok = key, true
+		c.b = append(c.b[:0], b[start:]...)
+	}
+	return b
+}
+
+// unitsKey is what the "units" of an answer depend on.
+type unitsKey struct {
+	plan *Plan
+	mask [maxProps / 64]uint64 // which columns of the plan have a value
+	set  string
+	n    int
+	in   [2][2]string // symbol and unit of each input
+}
+
+// unitsCache is the last "units" an Answer wrote, and its key.
+type unitsCache struct {
+	key unitsKey
+	ok  bool
+	b   []byte
 }
 
 // maxProps bounds the catalogue, for the set of symbols AppendJSON has

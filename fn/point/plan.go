@@ -68,11 +68,15 @@ func (pl *Plan) Fill(st *fn.State, a *Answer) {
 	a.Phase, a.Region, a.Set = st.Phase.String(), st.Region, pl.set
 	a.Fields = a.Fields[:0]
 	a.Warnings = append(a.Warnings[:0], st.Warnings...)
+	a.plan, a.mask = pl, [len(a.mask)]uint64{}
 	for i := range pl.cols {
 		c := &pl.cols[i]
 		v, ok := c.prop.get(w)
 		f := Field{Symbol: c.prop.Symbol, Name: c.prop.Name, Unit: c.unit.Name,
 			Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0), idx: c.idx}
+		if f.Defined && i < maxProps {
+			a.mask[i/64] |= 1 << (i % 64)
+		}
 		if pl.defaults && !f.Defined {
 			continue
 		}

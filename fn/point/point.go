@@ -202,6 +202,10 @@ type Answer struct {
 	st     fn.State // the state Plan.Row solved
 	w      view     // the state being written, with its transport properties
 	joined []byte   // scratch for the warnings of a CSV cell
+
+	plan  *Plan                 // the plan that filled the answer
+	mask  [maxProps / 64]uint64 // which columns of plan have a value
+	units unitsCache            // the last "units" written
 }
 
 // Formulation is the name of the formulation every answer comes from.
