@@ -16,6 +16,7 @@ import (
 	"sync"
 	"time"
 	"unicode/utf8"
+	"unsafe"
 
 	"github.com/gin-gonic/gin"
 
@@ -152,7 +153,11 @@ type batchRow struct {
 	err   error         // why the row cannot be solved as read
 	ok    bool          // answered with "ok"
 	out   []byte        // the answer row, ready to write
-	tmp   []string      // scratch cells
+
+	// Kept from row to row, so that a row costs no allocation.
+	line   []byte        // CSV: the line the cells view
+	ans    point.Answer  // the answer
+	inputs []point.Input // its inputs as understood
 }
 
 func (r *batchRow) size() int {
@@ -174,6 +179,8 @@ type rowSource interface {
 // csvSource reads a CSV body.
 type csvSource struct {
 	r       *csv.Reader
+	br      *bufio.Reader // what r reads from, for the lines read without it
+	lines   int           // lines read without r, which r does not count
 	lim     *rowLimit
 	header  []string
 	inputs  []point.Column
@@ -192,7 +199,7 @@ func newCSVSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*csvSource, e
 	if err != nil {
 		return nil, errorf(ErrBadBody, "", "the header line is not CSV: %v", err)
 	}
-	cs := &csvSource{r: r, lim: lim, header: append([]string(nil), rec...)}
+	cs := &csvSource{r: r, br: br, lim: lim, header: append([]string(nil), rec...)}
 	cs.header[0] = strings.TrimPrefix(cs.header[0], "\ufeff")
 	for i, h := range cs.header {
 		if !utf8.ValidString(h) {
@@ -269,48 +276,107 @@ func sniffDelimiter(br *bufio.Reader) rune {
 
 func (cs *csvSource) next(row *batchRow) error {
 	cs.lim.reset()
-	rec, err := cs.pending, error(nil)
-	if rec != nil {
-		cs.pending = nil
-	} else {
-		rec, err = cs.r.Read()
-	}
 	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
-	var pe *csv.ParseError
-	switch {
-	case err == io.EOF:
-		return io.EOF
-	case errors.As(err, &pe):
-		row.err = errorf(ErrBadBody, "", "line %d is not CSV: %v", pe.Line, pe.Err)
-		return nil
-	case err != nil:
-		return err
+	if cs.pending != nil {
+		row.cells = append(row.cells, cs.pending...)
+		cs.pending = nil
+	} else if !cs.plainLine(row) {
+		rec, err := cs.r.Read()
+		var pe *csv.ParseError
+		switch {
+		case err == io.EOF:
+			return io.EOF
+		case errors.As(err, &pe):
+			row.err = errorf(ErrBadBody, "", "line %d is not CSV: %v", pe.Line+cs.lines, pe.Err)
+			return nil
+		case err != nil:
+			return err
+		}
+		row.cells = append(row.cells, rec...)
 	}
-	row.cells = append(row.cells, rec...)
-	if len(rec) > len(cs.header) {
-		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(rec), len(cs.header))
+	if len(row.cells) > len(cs.header) {
+		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(row.cells), len(cs.header))
 		return nil
 	}
 	for _, in := range cs.inputs {
 		text := ""
-		if in.Index < len(rec) {
-			text = rec[in.Index]
+		if in.Index < len(row.cells) {
+			text = row.cells[in.Index]
 		}
 		row.given = append(row.given, in.Given(text))
 	}
 	return nil
 }
 
+// plainLine reads the next record into row when it is a line without
+// quotes that the buffer holds whole: the common line, which it splits at
+// the delimiter as encoding/csv would, but into the row's own memory with
+// no allocation (csv.Reader makes a string per record). Empty lines are
+// skipped as encoding/csv skips them. It reports false, having read
+// nothing of the record, for everything else (quotes, a line longer than
+// the buffer, the last line without a line break), which cs.r reads.
+func (cs *csvSource) plainLine(row *batchRow) bool {
+	delim := byte(cs.r.Comma)
+	for {
+		if cs.br.Buffered() == 0 {
+			if _, err := cs.br.Peek(1); err != nil {
+				return false
+			}
+		}
+		buf, _ := cs.br.Peek(cs.br.Buffered())
+		end := bytes.IndexByte(buf, '\n')
+		if end < 0 {
+			return false
+		}
+		line := buf[:end]
+		if bytes.IndexByte(line, '"') >= 0 {
+			return false
+		}
+		line = bytes.TrimSuffix(line, []byte{'\r'})
+		if len(line) == 0 {
+			_, _ = cs.br.Discard(end + 1)
+			cs.lines++
+			continue
+		}
+		row.line = append(row.line[:0], line...)
+		_, _ = cs.br.Discard(end + 1)
+		cs.lines++
+		rest := row.line
+		for {
+			i := bytes.IndexByte(rest, delim)
+			if i < 0 {
+				row.cells = append(row.cells, bytesView(rest))
+				return true
+			}
+			row.cells = append(row.cells, bytesView(rest[:i]))
+			rest = rest[i+1:]
+		}
+	}
+}
+
+// bytesView is b as a string without a copy. The cells of a row view the
+// row's own buffers, which are written again only when the row is read
+// anew, after its answer has been written; nothing keeps a cell longer
+// (the units cache copies what it keeps, error messages copy the text).
+func bytesView(b []byte) string { return unsafe.String(unsafe.SliceData(b), len(b)) }
+
 // jsonSource reads a JSON array of objects.
 type jsonSource struct {
 	dec *json.Decoder
 	lim *rowLimit
 	set units.Set
-	// The keys of the last row and how they read: rows of one batch mostly
-	// share their keys.
+
+	// The keys of the last row and how they read (point.ReadTable): rows
+	// of one batch mostly share their keys.
 	keys  []string
 	table point.Table
 	err   error
+
+	// Kept from row to row, so that a row costs no allocation.
+	elem     json.RawMessage
+	buf      bytes.Buffer
+	rowKeys  []string // the keys of the row being read, viewing it
+	rowSpans [][2]int // where each key's value lies in the row
 }
 
 func newJSONSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*jsonSource, error) {
@@ -340,15 +406,14 @@ func (js *jsonSource) next(row *batchRow) error {
 		}
 		return io.EOF
 	}
-	var raw json.RawMessage
-	if err := js.dec.Decode(&raw); err != nil {
+	if err := js.dec.Decode(&js.elem); err != nil {
 		return jsonStop(err, row.n)
 	}
-	var b bytes.Buffer
-	if err := json.Compact(&b, raw); err != nil {
+	js.buf.Reset()
+	if err := json.Compact(&js.buf, js.elem); err != nil {
 		return jsonStop(err, row.n)
 	}
-	row.raw = append(row.raw, b.Bytes()...)
+	row.raw = append(row.raw, js.buf.Bytes()...)
 	row.err = js.readRow(row.raw, row)
 	return nil
 }
@@ -365,32 +430,31 @@ func jsonStop(err error, n int) error {
 	return errorf(ErrBadBody, "", "row %d is not valid JSON: %v", n, err)
 }
 
-// readRow reads the inputs of one element, keeping the order of its keys.
-// Keys are read as a CSV header is (point.ReadTable: "p", "T", "Drum
-// pressure [barg]"); keys that name no input are passed through.
+// readRow reads the inputs of one element, compact and valid JSON as the
+// decoder gives it, keeping the order of its keys. Keys are read as a CSV
+// header is (point.ReadTable: "p", "T", "Drum pressure [barg]"); keys that
+// name no input are passed through. The texts of the inputs view raw.
 func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
-	d := json.NewDecoder(bytes.NewReader(raw))
-	d.UseNumber()
-	if tok, _ := d.Token(); tok != json.Delim('{') {
+	if len(raw) == 0 || raw[0] != '{' {
 		return errorf(ErrBadBody, "", `the row is not a JSON object; give one like {"p":"6 barg","t":"330C"}`)
 	}
-	var keys []string
-	var vals []json.RawMessage
-	for d.More() {
-		kt, err := d.Token()
-		if err != nil {
-			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
+	js.rowKeys, js.rowSpans = js.rowKeys[:0], js.rowSpans[:0]
+	for i := 1; raw[i] != '}'; {
+		if raw[i] == ',' {
+			i++
 		}
-		var v json.RawMessage
-		if err := d.Decode(&v); err != nil {
-			return errorf(ErrBadBody, "", "the row is not valid JSON: %v", err)
-		}
-		key, _ := kt.(string)
-		keys, vals = append(keys, key), append(vals, v)
+		key, n := jsonText(raw[i:])
+		i += n + 1 // and the colon
+		end := i + jsonValueLen(raw[i:])
+		js.rowKeys, js.rowSpans = append(js.rowKeys, key), append(js.rowSpans, [2]int{i, end})
+		i = end
 	}
-	if js.keys == nil || !slices.Equal(keys, js.keys) {
-		js.keys = keys
-		js.table, js.err = point.ReadTable(keys, nil, nil, js.set)
+	if js.keys == nil || !slices.Equal(js.rowKeys, js.keys) {
+		js.keys = make([]string, len(js.rowKeys))
+		for i, k := range js.rowKeys {
+			js.keys[i] = strings.Clone(k)
+		}
+		js.table, js.err = point.ReadTable(js.keys, nil, nil, js.set)
 		var pe *point.Error
 		if errors.As(js.err, &pe) {
 			js.err = errorf(ErrBadBody, clean(pe.Param, 40), "%s", clean(js.err.Error(), 600))
@@ -400,23 +464,76 @@ func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
 		return js.err
 	}
 	for _, c := range js.table.Columns {
+		sp := js.rowSpans[c.Index]
+		v := raw[sp[0]:sp[1]]
 		var text string
-		var v any
-		dv := json.NewDecoder(bytes.NewReader(vals[c.Index]))
-		dv.UseNumber()
-		_ = dv.Decode(&v)
-		switch v := v.(type) {
-		case string:
-			text = v
-		case json.Number:
-			text = v.String()
-		case nil:
+		switch v[0] {
+		case '"':
+			text, _ = jsonText(v)
+		case 'n':
+		case '-', '0', '1', '2', '3', '4', '5', '6', '7', '8', '9':
+			text = bytesView(v)
 		default:
 			return errorf(ErrBadBody, clean(c.Header, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(c.Header, 40))
 		}
 		row.given = append(row.given, c.Given(text))
 	}
 	return nil
+}
+
+// jsonText reads the JSON string at the start of b (valid JSON): its text,
+// viewing b unless it has escapes, and its length in b.
+func jsonText(b []byte) (string, int) {
+	n, escaped := jsonStringLen(b)
+	if !escaped {
+		return bytesView(b[1 : n-1]), n
+	}
+	var s string
+	_ = json.Unmarshal(b[:n], &s)
+	return s, n
+}
+
+// jsonStringLen is the length of the JSON string at the start of b (valid
+// JSON), quotes included, and whether it must be decoded: it has escapes,
+// or text that is not UTF-8, which decoding turns into U+FFFD.
+func jsonStringLen(b []byte) (int, bool) {
+	escaped, ascii := false, true
+	i := 1
+	for ; b[i] != '"'; i++ {
+		switch {
+		case b[i] == '\\':
+			escaped = true
+			i++
+		case b[i] >= utf8.RuneSelf:
+			ascii = false
+		}
+	}
+	return i + 1, escaped || !ascii && !utf8.Valid(b[1:i])
+}
+
+// jsonValueLen is the length of the JSON value at the start of b (compact
+// and valid JSON): up to the comma or brace that ends it.
+func jsonValueLen(b []byte) int {
+	depth := 0
+	for i := 0; i < len(b); i++ {
+		switch b[i] {
+		case '"':
+			n, _ := jsonStringLen(b[i:])
+			i += n - 1
+		case '{', '[':
+			depth++
+		case '}', ']':
+			if depth == 0 {
+				return i
+			}
+			depth--
+		case ',':
+			if depth == 0 {
+				return i
+			}
+		}
+	}
+	return len(b)
 }
 
 // batchOut writes the answer of a batch.
@@ -427,12 +544,14 @@ type batchOut struct {
 	header []string // the CSV body's header; nil for a JSON body
 	delim  rune     // CSV delimiter of the answer
 	keys   [][]byte // JSON keys of the header's columns, for "given"
+	plan   *point.Plan
 }
 
 func (o *batchOut) prepare() {
 	if o.delim == 0 {
 		o.delim = ','
 	}
+	o.plan = point.NewPlan(o.syms, o.opt)
 	seen := map[string]int{}
 	for _, h := range o.header {
 		k := h
@@ -504,15 +623,10 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 // call for different rows at once.
 func (s *Server) answer(o *batchOut, r *batchRow) {
 	r.out = r.out[:0]
-	var st fn.State
 	var in [2]fn.Input
 	err := r.err
 	if err == nil {
-		st, in, err = point.Solve(r.given, o.opt)
-	}
-	var ans point.Answer
-	if err == nil {
-		ans = point.Render(&st, o.syms, o.opt)
+		in, err = o.plan.Row(r.given, &r.ans)
 	}
 	r.ok = err == nil
 	var p problem
@@ -523,22 +637,31 @@ func (s *Server) answer(o *batchOut, r *batchRow) {
 		}
 	}
 	if o.format == "csv" {
-		cells := r.tmp[:0]
+		b := r.out
 		if o.header != nil {
-			cells = append(cells, r.cells[:min(len(r.cells), len(o.header))]...)
-			for len(cells) < len(o.header) {
-				cells = append(cells, "")
+			for i := range o.header {
+				if i > 0 {
+					b = utf8.AppendRune(b, o.delim)
+				}
+				if i < len(r.cells) {
+					b = point.AppendCSVCell(b, r.cells[i], o.delim)
+				}
 			}
 		} else {
-			cells = append(cells, string(r.raw))
+			b = point.AppendCSVCell(b, r.raw, o.delim)
 		}
+		b = utf8.AppendRune(b, o.delim)
 		if err != nil {
-			cells = emptyAnswerCells(append(cells, p.Msg), o.syms)
+			b = point.AppendCSVCell(b, p.Msg, o.delim)
+			for range len(o.syms) + 3 {
+				b = utf8.AppendRune(b, o.delim)
+			}
 		} else {
-			cells = answerCells(append(cells, "ok"), &ans)
+			b = append(b, "ok"...)
+			b = utf8.AppendRune(b, o.delim)
+			b = r.ans.AppendCSV(b, o.delim)
 		}
-		r.tmp = cells
-		r.out = appendCSVRow(r.out, cells, o.delim)
+		r.out = append(b, '\n')
 		return
 	}
 	b := r.out
@@ -572,7 +695,8 @@ func (s *Server) answer(o *batchOut, r *batchRow) {
 	}
 	b = append(b, ',')
 	start := len(b)
-	b = ans.AppendJSON(b, point.Inputs(in, o.opt), "")
+	r.inputs = point.AppendInputs(r.inputs[:0], in, o.opt)
+	b = r.ans.AppendJSON(b, r.inputs, "")
 	// Drop the answer's opening brace: its fields continue this object.
 	r.out = append(b[:start], b[start+1:]...)
 }
@@ -706,31 +830,14 @@ func (s *Server) solveChunk(o *batchOut, rows []batchRow) {
 	wg.Wait()
 }
 
-// appendCSVRow writes cells as one CSV line, quoting as RFC 4180 and
-// encoding/csv do: a cell with the delimiter, a quote, a line break or a
-// leading space is quoted, quotes doubled.
+// appendCSVRow writes cells as one CSV line, quoted as point.AppendCSVCell
+// quotes.
 func appendCSVRow(b []byte, cells []string, delim rune) []byte {
 	for i, c := range cells {
 		if i > 0 {
 			b = utf8.AppendRune(b, delim)
 		}
-		if !csvNeedsQuotes(c, delim) {
-			b = append(b, c...)
-			continue
-		}
-		b = append(b, '"')
-		b = append(b, strings.ReplaceAll(c, `"`, `""`)...)
-		b = append(b, '"')
+		b = point.AppendCSVCell(b, c, delim)
 	}
 	return append(b, '\n')
-}
-
-func csvNeedsQuotes(c string, delim rune) bool {
-	if c == "" {
-		return false
-	}
-	if c[0] == ' ' || c[0] == '\t' || c == `\.` {
-		return true
-	}
-	return strings.ContainsRune(c, delim) || strings.ContainsAny(c, "\"\r\n")
 }

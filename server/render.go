@@ -1,9 +1,6 @@
 package server
 
 import (
-	"encoding/json"
-	"strconv"
-	"strings"
 	"sync"
 
 	"github.com/gin-gonic/gin"
@@ -44,16 +41,11 @@ func writeBody(c *gin.Context, status int, ctype []string, body []byte) {
 }
 
 // appendJSONString writes s as a JSON string; invalid UTF-8 becomes U+FFFD.
-func appendJSONString(b []byte, s string) []byte {
-	q, _ := json.Marshal(s)
-	return append(b, q...)
-}
+func appendJSONString(b []byte, s string) []byte { return point.AppendJSONString(b, s) }
 
 // appendNumber writes v in the shortest form that reads back to the same
 // float64 ("2797.6", "1.5e-05"), which spreadsheets read as a number.
-func appendNumber(b []byte, v float64) []byte {
-	return strconv.AppendFloat(b, v, 'g', -1, 64)
-}
+func appendNumber(b []byte, v float64) []byte { return point.AppendNumber(b, v) }
 
 // fieldHeader returns the CSV header cell of property sym in set: "h [kJ/kg]",
 // or "x" for a pure number, the form workbook column headers take.
@@ -75,21 +67,6 @@ func answerHeader(dst []string, syms []string, set units.Set) []string {
 	return append(dst, "warnings")
 }
 
-// answerCells appends the CSV cells of an answer in the order of
-// answerHeader; a property with no value for the state is an empty cell.
-// Warnings are joined with "; ".
-func answerCells(dst []string, a *point.Answer) []string {
-	dst = append(dst, a.Phase, strconv.Itoa(a.Region))
-	for _, f := range a.Fields {
-		if f.Defined {
-			dst = append(dst, strconv.FormatFloat(f.Value, 'g', -1, 64))
-		} else {
-			dst = append(dst, "")
-		}
-	}
-	return append(dst, strings.Join(a.Warnings, "; "))
-}
-
 // emptyAnswerCells appends empty cells in place of an answer (a row that
 // failed).
 func emptyAnswerCells(dst []string, syms []string) []string {
@@ -102,5 +79,5 @@ func emptyAnswerCells(dst []string, syms []string) []string {
 // appendAnswerCSV writes one answer as a header line and a value line.
 func appendAnswerCSV(b []byte, a *point.Answer, syms []string, set units.Set) []byte {
 	b = appendCSVRow(b, answerHeader(nil, syms, set), ',')
-	return appendCSVRow(b, answerCells(nil, a), ',')
+	return append(a.AppendCSV(b, ','), '\n')
 }

@@ -1,8 +1,8 @@
 package point
 
 import (
-	"encoding/json"
 	"strconv"
+	"unicode/utf8"
 
 	"steamcell/fn"
 )
@@ -17,13 +17,16 @@ type Input struct {
 
 // Inputs writes the engine inputs in the units of opt.Set.
 func Inputs(in [2]fn.Input, opt Options) []Input {
-	out := make([]Input, 0, 2)
+	return AppendInputs(make([]Input, 0, 2), in, opt)
+}
+
+// AppendInputs is Inputs appending to dst, for a batch that reuses it.
+func AppendInputs(dst []Input, in [2]fn.Input, opt Options) []Input {
 	for _, i := range in {
-		d := DimOf(i.Q)
-		u := opt.Set.Unit(d)
-		out = append(out, Input{Symbol: i.Q.Symbol(), Value: u.FromBase(i.Value, opt.Patm), Unit: u.Name})
+		u := opt.Set.Unit(DimOf(i.Q))
+		dst = append(dst, Input{Symbol: i.Q.Symbol(), Value: u.FromBase(i.Value, opt.Patm), Unit: u.Name})
 	}
-	return out
+	return dst
 }
 
 // AppendJSON appends the answer as one flat JSON object: "inputs" (when
@@ -39,27 +42,73 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 			if i > 0 {
 				b = append(b, ',')
 			}
-			b = appendString(b, in.Symbol)
+			b = AppendJSONString(b, in.Symbol)
 			b = append(b, ':')
-			b = appendNumber(b, in.Value)
+			b = AppendNumber(b, in.Value)
 		}
 		b = append(b, "},"...)
 	}
 	b = append(b, `"phase":`...)
-	b = appendString(b, a.Phase)
+	b = AppendJSONString(b, a.Phase)
 	b = append(b, `,"region":`...)
 	b = strconv.AppendInt(b, int64(a.Region), 10)
-	var undefined []string
+	undefined := false
 	for _, f := range a.Fields {
 		if !f.Defined {
-			undefined = append(undefined, f.Symbol)
+			undefined = true
 			continue
 		}
 		b = append(b, ',')
-		b = appendString(b, f.Symbol)
+		b = AppendJSONString(b, f.Symbol)
 		b = append(b, ':')
-		b = appendNumber(b, f.Value)
+		b = AppendNumber(b, f.Value)
 	}
+	b = a.appendUnits(b, inputs)
+	b = append(b, `,"warnings":[`...)
+	for i, w := range a.Warnings {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = AppendJSONString(b, w)
+	}
+	b = append(b, ']')
+	if undefined {
+		b = append(b, `,"undefined":[`...)
+		first := true
+		for _, f := range a.Fields {
+			if !f.Defined {
+				if !first {
+					b = append(b, ',')
+				}
+				first = false
+				b = AppendJSONString(b, f.Symbol)
+			}
+		}
+		b = append(b, ']')
+	}
+	if caution != "" {
+		b = append(b, `,"caution":`...)
+		b = AppendJSONString(b, caution)
+	}
+	return append(b, '}')
+}
+
+// appendUnits writes "units" (each symbol once: an input first, then a
+// field by its place in the catalogue, as get=h,h asks twice for one
+// property), "unit_set" and "formulation". They change only with the
+// inputs and with which fields have a value, so an Answer that a Plan
+// fills keeps the last of them written and copies it.
+func (a *Answer) appendUnits(b []byte, inputs []Input) []byte {
+	c := &a.units
+	key := unitsKey{plan: a.plan, mask: a.mask, set: a.Set, n: len(inputs)}
+	for i := range min(len(inputs), len(key.in)) {
+		key.in[i] = [2]string{inputs[i].Symbol, inputs[i].Unit}
+	}
+	cacheable := a.plan != nil && len(a.plan.cols) <= maxProps && len(inputs) <= len(key.in)
+	if cacheable && c.ok && c.key == key {
+		return append(b, c.b...)
+	}
+	start := len(b)
 	b = append(b, `,"units":{`...)
 	first := true
 	add := func(sym, unit string) {
@@ -67,60 +116,122 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 			b = append(b, ',')
 		}
 		first = false
-		b = appendString(b, sym)
+		b = AppendJSONString(b, sym)
 		b = append(b, ':')
-		b = appendString(b, unit)
+		b = AppendJSONString(b, unit)
 	}
-	seen := map[string]bool{}
-	for _, in := range inputs {
-		if !seen[in.Symbol] {
-			seen[in.Symbol] = true
+	var seen [(maxProps + 63) / 64]uint64
+	for i, in := range inputs {
+		if !inputBefore(inputs[:i], in.Symbol) {
 			add(in.Symbol, in.Unit)
 		}
 	}
 	for _, f := range a.Fields {
-		if f.Defined && !seen[f.Symbol] {
-			seen[f.Symbol] = true
-			add(f.Symbol, f.Unit)
+		word, bit := f.idx/64, uint64(1)<<(f.idx%64)
+		if !f.Defined || seen[word]&bit != 0 || inputBefore(inputs, f.Symbol) {
+			continue
 		}
+		seen[word] |= bit
+		add(f.Symbol, f.Unit)
 	}
 	b = append(b, `},"unit_set":`...)
-	b = appendString(b, a.Set)
+	b = AppendJSONString(b, a.Set)
 	b = append(b, `,"formulation":`...)
-	b = appendString(b, Formulation)
-	b = append(b, `,"warnings":`...)
-	b = appendStrings(b, a.Warnings)
-	if len(undefined) > 0 {
-		b = append(b, `,"undefined":`...)
-		b = appendStrings(b, undefined)
+	b = AppendJSONString(b, Formulation)
+	if cacheable {
+		c.key, c.ok = key, true
+		c.b = append(c.b[:0], b[start:]...)
 	}
-	if caution != "" {
-		b = append(b, `,"caution":`...)
-		b = appendString(b, caution)
-	}
-	return append(b, '}')
+	return b
 }
 
-func appendStrings(b []byte, ss []string) []byte {
-	b = append(b, '[')
-	for i, s := range ss {
-		if i > 0 {
-			b = append(b, ',')
+// unitsKey is what the "units" of an answer depend on.
+type unitsKey struct {
+	plan *Plan
+	mask [maxProps / 64]uint64 // which columns of the plan have a value
+	set  string
+	n    int
+	in   [2][2]string // symbol and unit of each input
+}
+
+// unitsCache is the last "units" an Answer wrote, and its key.
+type unitsCache struct {
+	key unitsKey
+	ok  bool
+	b   []byte
+}
+
+// maxProps bounds the catalogue, for the set of symbols AppendJSON has
+// written; a test checks that the catalogue fits.
+const maxProps = 128
+
+func inputBefore(inputs []Input, sym string) bool {
+	for _, in := range inputs {
+		if in.Symbol == sym {
+			return true
 		}
-		b = appendString(b, s)
 	}
-	return append(b, ']')
+	return false
 }
 
-// appendNumber writes v in the shortest form that reads back to the same
-// float64.
-func appendNumber(b []byte, v float64) []byte {
-	return strconv.AppendFloat(b, v, 'g', -1, 64)
+// AppendJSONString writes s as a JSON string exactly as json.Marshal does
+// (HTML characters, U+2028 and U+2029 escaped, invalid UTF-8 as U+FFFD),
+// without its allocation.
+func AppendJSONString[T string | []byte](b []byte, s T) []byte {
+	const hex = "0123456789abcdef"
+	b = append(b, '"')
+	start := 0
+	for i := 0; i < len(s); {
+		if c := s[i]; c < utf8.RuneSelf {
+			if c >= 0x20 && c != '"' && c != '\\' && c != '<' && c != '>' && c != '&' {
+				i++
+				continue
+			}
+			b = append(b, s[start:i]...)
+			switch c {
+			case '\\', '"':
+				b = append(b, '\\', c)
+			case '\b':
+				b = append(b, '\\', 'b')
+			case '\f':
+				b = append(b, '\\', 'f')
+			case '\n':
+				b = append(b, '\\', 'n')
+			case '\r':
+				b = append(b, '\\', 'r')
+			case '\t':
+				b = append(b, '\\', 't')
+			default:
+				b = append(b, '\\', 'u', '0', '0', hex[c>>4], hex[c&0xF])
+			}
+			i++
+			start = i
+			continue
+		}
+		r, size := decodeRune(s[i:])
+		if r == utf8.RuneError && size == 1 {
+			b = append(b, s[start:i]...)
+			b = append(b, `\ufffd`...)
+			i += size
+			start = i
+			continue
+		}
+		if r == '\u2028' || r == '\u2029' {
+			b = append(b, s[start:i]...)
+			b = append(b, '\\', 'u', '2', '0', '2', hex[r&0xF])
+			i += size
+			start = i
+			continue
+		}
+		i += size
+	}
+	b = append(b, s[start:]...)
+	return append(b, '"')
 }
 
-// appendString writes s as a JSON string (json.Marshal escapes as JSON
-// requires; strconv.Quote's \x escapes are not JSON).
-func appendString(b []byte, s string) []byte {
-	q, _ := json.Marshal(s)
-	return append(b, q...)
+// decodeRune is utf8.DecodeRune for either kind of text.
+func decodeRune[T string | []byte](s T) (rune, int) {
+	var buf [utf8.UTFMax]byte
+	n := copy(buf[:], s[:min(len(s), utf8.UTFMax)])
+	return utf8.DecodeRune(buf[:n])
 }

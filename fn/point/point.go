@@ -3,8 +3,6 @@ package point
 import (
 	"errors"
 	"fmt"
-	"math"
-	"sort"
 	"strconv"
 	"strings"
 	"unicode/utf8"
@@ -149,6 +147,9 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 		return fn.State{}, in, err
 	}
 	st, err := fn.Solve(in[0], in[1])
+	if err == nil {
+		return st, in, nil // before errors.As, whose target costs an allocation
+	}
 	var ie *fn.InputError
 	if errors.As(err, &ie) && !ie.Pair {
 		// The engine speaks in base units; echo the input as the user gave
@@ -187,16 +188,26 @@ type Field struct {
 	Value   float64 // in Unit; meaningful when Defined
 	Unit    string  // label of the unit; "" for a pure number
 	Defined bool
+
+	idx int // index in the catalogue
 }
 
-// Answer is a solved state written in the user's units.
+// Answer is a solved state written in the user's units. An Answer that
+// Plan.Fill writes again and again reuses its memory.
 type Answer struct {
 	Phase    string
 	Region   int
 	Fields   []Field
-	Units    map[string]string // symbol → unit label of every field
 	Warnings []string
 	Set      string // name of the unit set
+
+	st     fn.State // the state Plan.Row solved
+	w      view     // the state being written, with its transport properties
+	joined []byte   // scratch for the warnings of a CSV cell
+
+	plan  *Plan                 // the plan that filled the answer
+	mask  [maxProps / 64]uint64 // which columns of plan have a value
+	units unitsCache            // the last "units" written
 }
 
 // Formulation is the name of the formulation every answer comes from.
@@ -260,36 +271,11 @@ func fieldSymbols() []string {
 // units of opt.Set. Properties asked for that have no value for this state
 // are returned with Defined false. With syms nil, Render gives the default
 // properties that have a value here (DefaultSymbols). Warnings of the state
-// and of its transport properties (when asked for) are passed on.
+// and of its transport properties (when asked for) are passed on. Render
+// is Fill with a plan of one; many points are written faster with one Plan.
 func Render(st *fn.State, syms []string, opt Options) Answer {
-	w := &view{st: st}
-	defaults := syms == nil
-	if defaults {
-		syms = defaultSymbols
-	}
-	a := Answer{Phase: st.Phase.String(), Region: st.Region, Units: map[string]string{}, Set: opt.Set.Name()}
-	a.Warnings = append(a.Warnings, st.Warnings...)
-	for _, sym := range syms {
-		p, _ := Lookup(sym)
-		if p.get == nil {
-			continue
-		}
-		v, ok := p.get(w)
-		label := p.Unit(opt.Set)
-		f := Field{Symbol: p.Symbol, Name: p.Name, Unit: label, Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0)}
-		if defaults && !f.Defined {
-			continue
-		}
-		if f.Defined {
-			f.Value = p.fromBase(v, opt.Set.Unit(p.Dim), opt.Patm)
-		}
-		a.Fields = append(a.Fields, f)
-		a.Units[p.Symbol] = label
-	}
-	a.Warnings = append(a.Warnings, w.trWarn...)
-	if w.sigmaWarn != "" {
-		a.Warnings = append(a.Warnings, w.sigmaWarn)
-	}
+	var a Answer
+	NewPlan(syms, opt).Fill(st, &a)
 	return a
 }
 
@@ -306,17 +292,6 @@ func (a *Answer) Value(sym string) (Field, error) {
 		}
 	}
 	return Field{}, &Error{Param: sym, Kind: ErrUnknownProperty, Msg: fmt.Sprintf("%s was not computed", quote(sym))}
-}
-
-// UnitsUsed returns the unit labels of the answer sorted by symbol, for
-// stable output.
-func (a *Answer) UnitsUsed() []string {
-	keys := make([]string, 0, len(a.Units))
-	for k := range a.Units {
-		keys = append(keys, k)
-	}
-	sort.Strings(keys)
-	return keys
 }
 
 func equalFold(a, b string) bool { return strings.EqualFold(a, b) }

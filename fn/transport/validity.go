@@ -180,26 +180,29 @@ func CheckConductivityRange(p, T float64) *Warning {
 
 func checkBands(pr Property, bands []validityBand, p, T float64) *Warning {
 	pMax := bands[len(bands)-1].pMax
-	w := &Warning{Property: pr, P: p, T: T, TMin: math.NaN(), TMax: math.NaN(), PMax: pMax}
+	tMin, tMax := math.NaN(), math.NaN()
+	// The warning is made only when returned: a point within range costs no
+	// allocation.
+	warn := func() *Warning { return &Warning{Property: pr, P: p, T: T, TMin: tMin, TMax: tMax, PMax: pMax} }
 	if !(p > 0 && p <= pMax) {
-		return w
+		return warn()
 	}
 	for _, b := range bands {
 		if p <= b.pMax {
-			w.TMax = b.tMax
+			tMax = b.tMax
 			break
 		}
 	}
 	// T_m(p) ≤ 273.31 K up to 632.4 MPa: skip the melting curve where it
 	// cannot matter.
-	if T > 273.31 && p <= iceVIP && T <= w.TMax {
+	if T > 273.31 && p <= iceVIP && T <= tMax {
 		return nil
 	}
-	w.TMin = MeltingTemperature(p)
-	if T >= w.TMin && T <= w.TMax {
+	tMin = MeltingTemperature(p)
+	if T >= tMin && T <= tMax {
 		return nil
 	}
-	return w
+	return warn()
 }
 
 // Melting curves of IAPWS R14-08(2011), Revised Release on the Pressure along

@@ -92,7 +92,7 @@ func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
 	reg := &registry[d]
 	var sep *Unit // the unit given separately
 	if opt.Unit != "" {
-		k, _, ok := find(strings.TrimSpace(opt.Unit), d)
+		k, ok := findRecent(strings.TrimSpace(opt.Unit), d)
 		if !ok {
 			return 0, nil, false
 		}

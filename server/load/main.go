@@ -5,6 +5,8 @@
 //
 //	go run ./server/load                  # about 30 s
 //	go run ./server/load -duration 3s     # shorter
+//	go run ./server/load -batch 1000000 -bin old/steamcell,new/steamcell
+//	                                      # one large POST /batch on each
 //
 // Both servers run as child processes of this program (it starts itself
 // with -child), listening on 127.0.0.1 only; the steamcell server runs as
@@ -48,8 +50,17 @@ func main() {
 		rounds   = flag.Int("rounds", 2, "throughput rounds per server, alternating")
 		rate     = flag.Int("rate", 1000, "requests per second of the paced run")
 		maxReq   = flag.Int("max-requests", 2_000_000, "most requests of any one run")
+		batch    = flag.Int("batch", 0, "instead: time one POST /batch of this many rows (at most 1000000) on each server of -bin")
+		bins     = flag.String("bin", "self", "with -batch: servers to compare, comma-separated; self, or paths of steamcell binaries")
 	)
 	flag.Parse()
+	if *batch > 0 {
+		if err := runBatch(*batch, strings.Split(*bins, ","), *rounds); err != nil {
+			fmt.Fprintln(os.Stderr, "load:", err)
+			os.Exit(1)
+		}
+		return
+	}
 	if *child != "" {
 		if err := runChild(*child); err != nil {
 			fmt.Fprintln(os.Stderr, "load child:", err)

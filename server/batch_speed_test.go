@@ -1,0 +1,213 @@
+//go:build unix
+
+package server
+
+import (
+	"bufio"
+	"bytes"
+	"fmt"
+	"io"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
+	"strings"
+	"syscall"
+	"testing"
+	"time"
+
+	"steamcell/fn"
+)
+
+// The per-row cost of /batch against the engine's cost of the same states,
+// measured side by side: each iteration solves the states alone, then sends
+// them as one batch through the handler (request log and metrics included,
+// no network), so that both see the same moment of a shared machine.
+
+// speedRows is the rows of one batch: a few chunks, a body kept in memory.
+const speedRows = 16384
+
+// speedPoint is row i of the benchmark batches: 1 to 100 barg, 200 to
+// 499 °C, compressed liquid and superheated vapour in regions 1 and 2, a
+// few rows near saturation (with a warning).
+func speedPoint(i int) (pBarg, tC int) { return 1 + i%100, 200 + i%300 }
+
+// speedBody is the batch of n rows as CSV (units in the header) or as a
+// JSON array (units in the values).
+func speedBody(n int, json bool) []byte {
+	rows := make([]int, n)
+	for i := range rows {
+		rows[i] = i
+	}
+	return speedBodyOf(rows, json)
+}
+
+// speedBodyOf is the batch of the given rows.
+func speedBodyOf(rows []int, json bool) []byte {
+	var b []byte
+	if json {
+		b = append(b, '[')
+		for k, i := range rows {
+			if k > 0 {
+				b = append(b, ",\n"...)
+			}
+			p, t := speedPoint(i)
+			b = fmt.Appendf(b, `{"id":%d,"p":"%d barg","t":"%d °C"}`, i+1, p, t)
+		}
+		return append(b, "]\n"...)
+	}
+	b = append(b, "id,p [barg],t [°C]\n"...)
+	for _, i := range rows {
+		p, t := speedPoint(i)
+		b = fmt.Appendf(b, "%d,%d,%d\n", i+1, p, t)
+	}
+	return b
+}
+
+// speedInputs are the states of speedBody as the engine takes them.
+func speedInputs(n int) [][2]fn.Input {
+	in := make([][2]fn.Input, n)
+	for i := range in {
+		p, t := speedPoint(i)
+		in[i] = [2]fn.Input{{Q: fn.Pressure, Value: float64(p)/10 + 0.101325}, {Q: fn.Temperature, Value: float64(t) + 273.15}}
+	}
+	return in
+}
+
+// processCPU is the CPU time this process has used, all threads.
+func processCPU() time.Duration {
+	var ru syscall.Rusage
+	if err := syscall.Getrusage(syscall.RUSAGE_SELF, &ru); err != nil {
+		panic(err)
+	}
+	return time.Duration(ru.Utime.Nano() + ru.Stime.Nano())
+}
+
+// discardWriter is a ResponseWriter that throws the answer away.
+type discardWriter struct {
+	h      http.Header
+	status int
+	n      int
+}
+
+func (w *discardWriter) Header() http.Header {
+	if w.h == nil {
+		w.h = http.Header{}
+	}
+	return w.h
+}
+func (w *discardWriter) WriteHeader(status int)      { w.status = status }
+func (w *discardWriter) Write(p []byte) (int, error) { w.n += len(p); return len(p), nil }
+func (w *discardWriter) Flush()                      {}
+
+var speedCases = []struct {
+	name, in, query string
+}{
+	{"csv", "csv", "?get=h,s,v"},
+	{"csv-json", "csv", "?get=h,s,v&format=json"},
+	{"json", "json", "?get=h,s,v"},
+	{"json-csv", "json", "?get=h,s,v&format=csv"},
+	{"csv-defaults", "csv", ""},
+	{"json-defaults", "json", ""},
+}
+
+func speedRequest(body []byte, in, query string) *http.Request {
+	req := httptest.NewRequest(http.MethodPost, "/batch"+query, bytes.NewReader(body))
+	req.Header.Set("Content-Type", map[string]string{"csv": "text/csv", "json": "application/json"}[in])
+	return req
+}
+
+var speedSink fn.State
+
+// BenchmarkBatchRatio reports, for each way in and out and with one and
+// two workers: ns/row of the batch, ns/state of the engine alone, their
+// ratio in wall time and in CPU time of the process (which a machine
+// shared with other jobs disturbs less), and rows/s of the batch.
+func BenchmarkBatchRatio(b *testing.B) {
+	inputs := speedInputs(speedRows)
+	for _, tc := range speedCases {
+		body := speedBody(speedRows, tc.in == "json")
+		for _, workers := range []int{1, 2} {
+			b.Run(fmt.Sprintf("%s/workers=%d", tc.name, workers), func(b *testing.B) {
+				s := New(Config{Workers: workers, Version: "bench", Logger: slog.New(slog.NewTextHandler(io.Discard, nil))})
+				rec := httptest.NewRecorder()
+				s.ServeHTTP(rec, speedRequest(body, tc.in, tc.query))
+				if ok := strings.Count(rec.Body.String(), "ok"); rec.Code != 200 || ok < speedRows {
+					b.Fatalf("status %d, %d rows ok of %d:\n%.500s", rec.Code, ok, speedRows, rec.Body.String())
+				}
+				var batch, engine, batchCPU, engineCPU time.Duration
+				for b.Loop() {
+					t0, c0 := time.Now(), processCPU()
+					for i := range inputs {
+						speedSink, _ = fn.Solve(inputs[i][0], inputs[i][1])
+					}
+					t1, c1 := time.Now(), processCPU()
+					s.ServeHTTP(&discardWriter{}, speedRequest(body, tc.in, tc.query))
+					batch += time.Since(t1)
+					engine += t1.Sub(t0)
+					batchCPU += processCPU() - c1
+					engineCPU += c1 - c0
+				}
+				rows := float64(b.N * speedRows)
+				b.ReportMetric(float64(batch.Nanoseconds())/rows, "ns/row")
+				b.ReportMetric(float64(engine.Nanoseconds())/rows, "ns/state")
+				b.ReportMetric(float64(batch)/float64(engine), "ratio")
+				b.ReportMetric(float64(batchCPU)/float64(engineCPU), "cpu-ratio")
+				b.ReportMetric(rows/batch.Seconds(), "rows/s")
+			})
+		}
+	}
+}
+
+// TestBatchRowAllocations checks that a row costs no allocation once the
+// buffers have grown: read, solve, write, for each way in and out. The rows
+// are states without warnings, whose text the engine makes anew.
+func TestBatchRowAllocations(t *testing.T) {
+	var rows []int
+	for i := 0; len(rows) < 3000; i++ {
+		in := speedInputs(i + 1)[i]
+		if st, err := fn.Solve(in[0], in[1]); err == nil && len(st.Warnings) == 0 {
+			rows = append(rows, i)
+		}
+	}
+	for _, tc := range []struct{ in, format string }{{"csv", "csv"}, {"csv", "json"}, {"json", "json"}, {"json", "csv"}} {
+		t.Run(tc.in+"-"+tc.format, func(t *testing.T) {
+			body := speedBodyOf(rows, tc.in == "json")
+			lim := &rowLimit{r: bytes.NewReader(body), max: maxRowBytes}
+			br := bufio.NewReaderSize(lim, 64<<10)
+			out := &batchOut{syms: []string{"h", "s", "v"}, format: tc.format}
+			var src rowSource
+			if tc.in == "json" {
+				js, err := newJSONSource(br, lim, siSet)
+				if err != nil {
+					t.Fatal(err)
+				}
+				src = js
+			} else {
+				cs, err := newCSVSource(br, lim, siSet)
+				if err != nil {
+					t.Fatal(err)
+				}
+				src, out.header, out.delim = cs, cs.header, cs.r.Comma
+			}
+			out.prepare()
+			s := New(Config{Workers: 1, Version: "test"})
+			var row batchRow
+			step := func() {
+				row.n++
+				if err := src.next(&row); err != nil {
+					t.Fatalf("row %d: %v", row.n, err)
+				}
+				s.answer(out, &row)
+				if !row.ok {
+					t.Fatalf("row %d: %s", row.n, row.out)
+				}
+			}
+			for range 200 {
+				step()
+			}
+			if a := testing.AllocsPerRun(2000, step); a != 0 {
+				t.Errorf("%.2f allocations per row, want 0", a)
+			}
+		})
+	}
+}
