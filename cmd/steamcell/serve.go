@@ -52,7 +52,7 @@ points:
   GET  /saturation?p=10bar                saturation line at p (or t=)
   POST /batch                             CSV or JSON rows, answered in order
   POST /workbook?name=tests.xlsx          the body filled as "steamcell fill" does
-  GET  /openapi.json  /healthz  /metrics
+  GET  /openapi.json  /healthz  /readyz  /metrics
 
 It listens on 127.0.0.1 (this computer only) unless --addr says otherwise.
 With a token every route but /healthz and /readyz wants
