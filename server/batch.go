@@ -745,6 +745,10 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
 	total, failed := 0, 0
 	var stop *problem
 	for done := false; !done; {
+		if s.stopped() {
+			stop = &problem{Code: "shutting_down", Msg: "the server is shutting down; rows after row " + strconv.Itoa(total) + " were not answered: send them again"}
+			break
+		}
 		n, bytesIn := 0, 0
 		for n < chunkRows && bytesIn < chunkBytes {
 			r := &rows[n]

@@ -101,6 +101,7 @@ var errorTable = []errorClass{
 	{ErrNoRoute, http.StatusNotFound, "no_route"},
 	{ErrMethod, http.StatusMethodNotAllowed, "method_not_allowed"},
 	{ErrNotImplemented, http.StatusNotImplemented, "not_implemented"},
+	{ErrBusy, http.StatusServiceUnavailable, "busy"},
 
 	// Reading a point (fn/point).
 	{point.ErrInputCount, http.StatusBadRequest, "input_count"},

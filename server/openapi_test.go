@@ -44,7 +44,7 @@ func TestOpenAPIDocument(t *testing.T) {
 		paths = append(paths, p)
 	}
 	sort.Strings(paths)
-	want := []string{"/batch", "/healthz", "/metrics", "/openapi.json", "/saturation", "/state", "/state/{property}", "/workbook"}
+	want := []string{"/batch", "/healthz", "/metrics", "/openapi.json", "/readyz", "/saturation", "/state", "/state/{property}", "/workbook"}
 	if !slices.Equal(paths, want) {
 		t.Errorf("paths %q, want the server's routes %q", paths, want)
 	}
@@ -100,6 +100,7 @@ func TestOpenAPIResponses(t *testing.T) {
 		{"POST", "/workbook?name=a.xlsx", xlsx, "PK", 200},
 		{"GET", "/openapi.json", "", "", 200},
 		{"GET", "/healthz", "", "", 200},
+		{"GET", "/readyz", "", "", 200},
 		{"GET", "/metrics", "", "", 200},
 	} {
 		var hdr map[string]string

@@ -5,6 +5,8 @@ import (
 	"log/slog"
 	"net/http"
 	"runtime"
+	"sync"
+	"sync/atomic"
 	"time"
 
 	"github.com/gin-gonic/gin"
@@ -31,6 +33,7 @@ const (
 	DefaultReadTimeout      = 60 * time.Second
 	DefaultWriteTimeout     = 60 * time.Second
 	DefaultIdleTimeout      = 120 * time.Second
+	DefaultMaxBulk          = 8
 )
 
 // Config is how a Server is set up. The zero Config is a working server
@@ -57,6 +60,11 @@ type Config struct {
 	// sheet in memory); others wait their turn. 0 means 1.
 	Fills   int
 	Version string
+
+	// MaxBulk is how many /batch and /workbook requests run at once
+	// (waiting fills included); more are answered 503 with Retry-After.
+	// 0 means DefaultMaxBulk.
+	MaxBulk int
 }
 
 // Server is the HTTP function server. Build it with New; it is an
@@ -68,6 +76,11 @@ type Server struct {
 	metrics *metrics
 	token   []byte
 	fills   chan struct{} // one token per /workbook fill running
+
+	bulk     chan struct{} // one token per /batch or /workbook request running
+	draining atomic.Bool   // set by Drain: /readyz answers 503
+	stopping chan struct{} // closed by StopStreams
+	stopOnce sync.Once
 }
 
 // New returns a server set up by cfg.
@@ -80,6 +93,7 @@ func New(cfg Config) *Server {
 	orDefault(&cfg.WriteTimeout, DefaultWriteTimeout)
 	orDefault(&cfg.IdleTimeout, DefaultIdleTimeout)
 	orDefault(&cfg.Fills, 1)
+	orDefault(&cfg.MaxBulk, DefaultMaxBulk)
 	if cfg.Workers <= 0 || cfg.Workers > 2 {
 		cfg.Workers = min(2, runtime.GOMAXPROCS(0))
 	}
@@ -87,7 +101,8 @@ func New(cfg Config) *Server {
 	if log == nil {
 		log = slog.New(slog.NewTextHandler(io.Discard, nil))
 	}
-	s := &Server{cfg: cfg, log: log, metrics: newMetrics(), fills: make(chan struct{}, cfg.Fills)}
+	s := &Server{cfg: cfg, log: log, metrics: newMetrics(), fills: make(chan struct{}, cfg.Fills),
+		bulk: make(chan struct{}, cfg.MaxBulk), stopping: make(chan struct{})}
 	if cfg.Token != "" {
 		s.token = []byte(cfg.Token)
 	}
@@ -115,10 +130,11 @@ func (s *Server) routes() *gin.Engine {
 	r.GET("/state", s.getState)
 	r.GET("/state/:property", s.getStateProperty)
 	r.GET("/saturation", s.getSaturation)
-	r.POST("/batch", s.postBatch)
-	r.POST("/workbook", s.postWorkbook)
+	r.POST("/batch", s.limitBulk, s.postBatch)
+	r.POST("/workbook", s.limitBulk, s.postWorkbook)
 	r.GET("/openapi.json", s.getOpenAPI)
 	r.GET("/healthz", s.getHealth)
+	r.GET("/readyz", s.getReady)
 	r.GET("/metrics", s.getMetrics)
 
 	r.NoRoute(s.noRoute)
@@ -153,6 +169,7 @@ var routeNames = map[string]string{
 	"/workbook":        "/workbook",
 	"/openapi.json":    "/openapi.json",
 	"/healthz":         "/healthz",
+	"/readyz":          "/readyz",
 	"/metrics":         "/metrics",
 }
 
@@ -167,7 +184,7 @@ func routeOf(c *gin.Context) string {
 
 // noRoute answers a path that is no route.
 func (s *Server) noRoute(c *gin.Context) {
-	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
+	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /readyz, GET /metrics", clean(c.Request.URL.Path, 80)))
 }
 
 // noMethod answers a route asked with the wrong method.

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"runtime"
 
 	"github.com/spf13/cobra"
 )
@@ -15,9 +16,13 @@ const (
 	ExitUsage   = 2 // the command line itself is wrong
 )
 
-// Version is the program version; release builds set it with
-// -ldflags "-X main.Version=…".
-var Version = "0.1.0-dev"
+// Version and Commit stamp the program; release builds
+// (server/deploy/release.sh) set them with
+// -ldflags "-X main.Version=… -X main.Commit=…".
+var (
+	Version = "0.1.0-dev"
+	Commit  = "unknown"
+)
 
 // verbs are the commands besides version; each verb's file adds itself in
 // an init function, so that a verb is registered exactly when it exists.
@@ -122,7 +127,8 @@ func (a *App) versionCommand() *cobra.Command {
 		Use:   "version",
 		Short: "Print the program version and the formulations it implements",
 		RunE: func(cmd *cobra.Command, _ []string) error {
-			_, err := fmt.Fprintf(cmd.OutOrStdout(), "steamcell %s\nformulation: IAPWS-IF97 (R7-97(2012))\n", Version)
+			_, err := fmt.Fprintf(cmd.OutOrStdout(), "steamcell %s\ncommit: %s\nbuilt with: %s %s/%s\nformulation: IAPWS-IF97 (R7-97(2012))\n",
+				Version, Commit, runtime.Version(), runtime.GOOS, runtime.GOARCH)
 			return err
 		},
 	}

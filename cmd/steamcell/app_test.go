@@ -23,6 +23,12 @@ func TestVersion(t *testing.T) {
 	if !strings.Contains(out, Version) || !strings.Contains(out, "IAPWS-IF97") {
 		t.Errorf("version output %q lacks the version or the formulation", out)
 	}
+	// The stamp of a release build (-X main.Version=… -X main.Commit=…).
+	defer func(v, c string) { Version, Commit = v, c }(Version, Commit)
+	Version, Commit = "1.4.0", "0123abc"
+	if _, out, _ := runApp(t, "version"); !strings.HasPrefix(out, "steamcell 1.4.0\ncommit: 0123abc\n") {
+		t.Errorf("stamped version output %q", out)
+	}
 }
 
 func TestExitCodes(t *testing.T) {

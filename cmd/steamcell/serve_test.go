@@ -9,6 +9,7 @@ import (
 	"net/http"
 	"os"
 	"os/exec"
+	"path/filepath"
 	"regexp"
 	"strconv"
 	"strings"
@@ -17,6 +18,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/spf13/pflag"
 	"gonum.org/v1/gonum/floats/scalar"
 
 	"steamcell/fn"
@@ -210,17 +212,21 @@ func TestByteSize(t *testing.T) {
 	}
 }
 
-// TestServeSignal starts steamcell serve in a child process, sends it
-// SIGTERM and checks that it stops cleanly with exit code 0.
+// TestServeSignal starts steamcell serve in a child process, with a drain
+// delay from the environment, sends it SIGTERM and checks that /readyz
+// then answers 503 while requests are still served; a second SIGTERM ends
+// the drain and the child stops cleanly with exit code 0.
 func TestServeSignal(t *testing.T) {
 	cmd := exec.Command(os.Args[0], "-test.run=^TestServeChildProcess$")
-	cmd.Env = append(os.Environ(), "STEAMCELL_SERVE_CHILD=1")
+	cmd.Env = append(os.Environ(), "STEAMCELL_SERVE_CHILD=1", "STEAMCELL_DRAIN_DELAY=10m")
 	stdout, err := cmd.StdoutPipe()
 	if err != nil {
 		t.Fatal(err)
 	}
-	var stderr lockedBuffer
-	cmd.Stderr = &stderr
+	stderrPipe, err := cmd.StderrPipe()
+	if err != nil {
+		t.Fatal(err)
+	}
 	if err := cmd.Start(); err != nil {
 		t.Fatal(err)
 	}
@@ -234,6 +240,20 @@ func TestServeSignal(t *testing.T) {
 			}
 		}
 	}()
+	var stderr lockedBuffer
+	draining, logDone := make(chan struct{}), make(chan struct{})
+	go func() {
+		defer close(logDone)
+		sc := bufio.NewScanner(stderrPipe)
+		seen := false
+		for sc.Scan() {
+			stderr.Write(append(sc.Bytes(), '\n'))
+			if !seen && strings.Contains(sc.Text(), "draining") {
+				seen = true
+				close(draining)
+			}
+		}
+	}()
 	var base string
 	select {
 	case base = <-urlc:
@@ -243,18 +263,35 @@ func TestServeSignal(t *testing.T) {
 	if st, _ := fetch(t, base+"/state/region?p=6barg&t=330C", nil); st != 200 {
 		t.Fatalf("child answered %d", st)
 	}
+	if st, _ := fetch(t, base+"/readyz", nil); st != 200 {
+		t.Errorf("/readyz before SIGTERM: %d, want 200", st)
+	}
+	if err := cmd.Process.Signal(syscall.SIGTERM); err != nil {
+		t.Fatal(err)
+	}
+	select {
+	case <-draining:
+	case <-time.After(20 * time.Second):
+		t.Fatalf("child logged no drain after SIGTERM:\n%s", stderr.String())
+	}
+	if st, _ := fetch(t, base+"/readyz", nil); st != http.StatusServiceUnavailable {
+		t.Errorf("/readyz while draining: %d, want 503", st)
+	}
+	if st, _ := fetch(t, base+"/state/region?p=6barg&t=330C", nil); st != 200 {
+		t.Errorf("/state while draining: %d, want 200", st)
+	}
 	if err := cmd.Process.Signal(syscall.SIGTERM); err != nil {
 		t.Fatal(err)
 	}
 	done := make(chan error, 1)
-	go func() { done <- cmd.Wait() }()
+	go func() { <-logDone; done <- cmd.Wait() }()
 	select {
 	case err := <-done:
 		if err != nil {
 			t.Errorf("child after SIGTERM: %v; stderr:\n%s", err, stderr.String())
 		}
 	case <-time.After(20 * time.Second):
-		t.Fatal("child did not stop after SIGTERM")
+		t.Fatal("child did not stop after the second SIGTERM")
 	}
 	if !strings.Contains(stderr.String(), "msg=stopped") {
 		t.Errorf("child log lacks the stop:\n%s", stderr.String())
@@ -271,4 +308,127 @@ func TestServeChildProcess(t *testing.T) {
 	code := app.Run([]string{"serve", "--addr", "127.0.0.1:0"})
 	app.Close()
 	os.Exit(code)
+}
+
+// TestServeEnvironment: flags come from STEAMCELL_ variables, the command
+// line wins over them, a bad value names its variable, and the token can
+// come from a file.
+func TestServeEnvironment(t *testing.T) {
+	dir := t.TempDir()
+	tokenFile := filepath.Join(dir, "token")
+	if err := os.WriteFile(tokenFile, []byte("f1le-t0ken\n"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	t.Setenv("STEAMCELL_UNITS", "us")
+	t.Setenv("STEAMCELL_ADDR", "127.0.0.1:1") // the command line's --addr wins
+	t.Setenv("STEAMCELL_TOKEN_FILE", tokenFile)
+	var out, errb lockedBuffer
+	app := NewApp(strings.NewReader(""), &out, &errb)
+	code := make(chan int, 1)
+	go func() { code <- app.Run([]string{"serve", "--addr", "127.0.0.1:0"}) }()
+	base := waitURL(t, &out)
+	if st, _ := fetch(t, base+"/state/h?p=600kPa&t=330C", nil); st != 401 {
+		t.Errorf("without the token of the file: %d, want 401", st)
+	}
+	st, body := fetch(t, base+"/state/h?p=600kPa&t=330C&key=f1le-t0ken", nil)
+	want, err := fn.Solve(fn.Input{Q: fn.Pressure, Value: 0.6}, fn.Input{Q: fn.Temperature, Value: 603.15})
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, perr := strconv.ParseFloat(body, 64)
+	// STEAMCELL_UNITS=us: 1 Btu_IT/lb = 2.326 kJ/kg exactly (NIST SP 811, 2008).
+	if st != 200 || perr != nil || !scalar.EqualWithinAbsOrRel(got, want.H/2.326, 1e-9, 1e-12) {
+		t.Errorf("/state/h with STEAMCELL_UNITS=us: %d %q, want %.15g", st, body, want.H/2.326)
+	}
+	app.Close()
+	if c := <-code; c != ExitOK {
+		t.Errorf("serve exit %d; stderr %s", c, errb.String())
+	}
+
+	t.Setenv("STEAMCELL_TOKEN_FILE", "")
+	t.Setenv("STEAMCELL_MAX_BODY", "12XB")
+	if code, _, stderr := runApp(t, "serve", "--addr", "127.0.0.1:0"); code != ExitUsage || !strings.Contains(stderr, "STEAMCELL_MAX_BODY") {
+		t.Errorf("STEAMCELL_MAX_BODY=12XB: exit %d, stderr %q; want a usage error naming the variable", code, stderr)
+	}
+	t.Setenv("STEAMCELL_MAX_BODY", "")
+	empty := filepath.Join(dir, "empty")
+	if err := os.WriteFile(empty, nil, 0o600); err != nil {
+		t.Fatal(err)
+	}
+	if code, _, stderr := runApp(t, "serve", "--addr", "127.0.0.1:0", "--token-file", empty); code != ExitFailure || !strings.Contains(stderr, "empty") {
+		t.Errorf("empty token file: exit %d, stderr %q; want a failure, not a server open to all", code, stderr)
+	}
+	if code, _, _ := runApp(t, "serve", "--token", "a", "--token-file", tokenFile); code != ExitUsage {
+		t.Errorf("--token and --token-file: exit %d, want %d", code, ExitUsage)
+	}
+}
+
+// TestServeFlagTable: the README's table of flags and environment
+// variables lists every flag of serve, its variable and its default, and
+// nothing else.
+func TestServeFlagTable(t *testing.T) {
+	readme, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	row := regexp.MustCompile("^\\| `--([a-z-]+)` \\| `(STEAMCELL_[A-Z_]+)` \\| ([^|]+) \\|")
+	inTable := map[string]bool{}
+	for line := range strings.SplitSeq(string(readme), "\n") {
+		m := row.FindStringSubmatch(line)
+		if m == nil {
+			continue
+		}
+		name, env, def := m[1], m[2], strings.Trim(strings.TrimSpace(m[3]), "`")
+		inTable[name] = true
+		f := NewApp(nil, io.Discard, io.Discard).serveCommand().Flags().Lookup(name)
+		if f == nil {
+			t.Errorf("README lists --%s, which serve does not have", name)
+			continue
+		}
+		if env != envName(name) {
+			t.Errorf("README: --%s is set by %s, want %s", name, env, envName(name))
+		}
+		want := f.DefValue
+		if want == "" || want == "[]" {
+			want = "none"
+		}
+		if def != want {
+			t.Errorf("README: --%s defaults to %q, the flag to %q", name, def, want)
+		}
+	}
+	NewApp(nil, io.Discard, io.Discard).serveCommand().Flags().VisitAll(func(f *pflag.Flag) {
+		if !inTable[f.Name] {
+			t.Errorf("README's table of flags lacks --%s (%s)", f.Name, envName(f.Name))
+		}
+	})
+}
+
+// TestProbe: probe exits 0 for a server that is up, 1 for none, and asks
+// an address on every interface on the loopback.
+func TestProbe(t *testing.T) {
+	var out, errb lockedBuffer
+	app := NewApp(strings.NewReader(""), &out, &errb)
+	code := make(chan int, 1)
+	go func() { code <- app.Run([]string{"serve", "--addr", "127.0.0.1:0"}) }()
+	base := waitURL(t, &out)
+	addr := strings.TrimPrefix(base, "http://")
+	_, port, _ := net.SplitHostPort(addr)
+	if c, stdout, stderr := runApp(t, "probe", "--addr", addr); c != ExitOK || !strings.Contains(stdout, "200") {
+		t.Errorf("probe of a running server: exit %d, %q %q", c, stdout, stderr)
+	}
+	t.Setenv("STEAMCELL_ADDR", "0.0.0.0:"+port)
+	if c, _, stderr := runApp(t, "probe", "--path", "/readyz"); c != ExitOK {
+		t.Errorf("probe of STEAMCELL_ADDR=0.0.0.0:%s /readyz: exit %d, %q", port, c, stderr)
+	}
+	if c, _, _ := runApp(t, "probe", "--path", "/nowhere"); c != ExitFailure {
+		t.Errorf("probe of a path that is no route: exit %d, want %d", c, ExitFailure)
+	}
+	app.Close()
+	<-code
+	if c, _, _ := runApp(t, "probe", "--addr", addr); c != ExitFailure {
+		t.Errorf("probe of a stopped server: exit %d, want %d", c, ExitFailure)
+	}
+	if c, _, _ := runApp(t, "probe", "--addr", "nowhere"); c != ExitUsage {
+		t.Errorf("probe --addr nowhere: exit %d, want %d", c, ExitUsage)
+	}
 }
