@@ -126,20 +126,19 @@ func regionBox(r int) box {
 	return box{1e-9, PMaxHigh, TMax, TMaxHigh}
 }
 
-// newton2 solves q1(a, T) = v1, q2(a, T) = v2 in region r from the start
-// (a, T) by Newton steps with the analytic Jacobian, damped to stay in the
-// region's box. It stops when both residuals are below resTol and returns
-// the properties at the last point evaluated, reporting false if 60 steps
-// do not get there.
-func newton2(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64) (if97.Props, bool) {
-	return newton2n(r, q1, v1, q2, v2, a, T, 60, 1)
-}
-
-// newton2n is newton2 with at most maxIter steps and the residual tolerance
-// scaled by tolFactor: pairs whose inputs hardly depend on one of the
-// variables (h and s of cold liquid hardly move with p) need 1e-3 to pin
-// that variable to 1e-9.
-func newton2n(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64, maxIter int, tolFactor float64) (if97.Props, bool) {
+// newton is the one Newton driver of every pair: it solves
+// q1(a, T) = v1, q2(a, T) = v2 in region r from the start (a, T), a and T
+// the region's native variables (see eval), by Newton steps with the
+// analytic Jacobian (partials), damped to stay in the region's box. A pair
+// that fixes a native variable (p in the Gibbs regions, T, ρ in region 3)
+// gives it as q1: its row of the Jacobian is exact, so that variable stays
+// put and the steps are those of a one-dimensional Newton method in the
+// other. It stops when both residuals are below resTol scaled by
+// tolFactor (pairs whose inputs hardly depend on one of the variables, h
+// and s of cold liquid hardly moving with p, need 1e-3 to pin that
+// variable to 1e-9) and returns the properties at the last point
+// evaluated, reporting false if maxIter steps do not get there.
+func newton(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float64, maxIter int, tolFactor float64) (if97.Props, bool) {
 	b := regionBox(r)
 	s1, s2 := scaleOf(q1, v1), scaleOf(q2, v2)
 	tol1, tol2 := tolFactor*resTol(q1, v1), tolFactor*resTol(q2, v2)
@@ -178,50 +177,6 @@ func newton2n(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T floa
 		}
 		a += lam * da
 		T += lam * dT
-	}
-	return pr, false
-}
-
-// newton1 solves q(a, T) = v for the native variable a at fixed T, or for T
-// at fixed a when onT is true, in region r from the given start. It stops
-// when the residual is below resTol(q, v), returning the properties at the
-// last point evaluated (so they are the forward equation's own values), and
-// reports false after 80 steps or at a zero derivative.
-func newton1(r int, q Quantity, v float64, a, T float64, onT bool) (if97.Props, bool) {
-	return newton1n(r, q, v, a, T, onT, 80)
-}
-
-// newton1n is newton1 with at most maxIter steps.
-func newton1n(r int, q Quantity, v float64, a, T float64, onT bool, maxIter int) (if97.Props, bool) {
-	b := regionBox(r)
-	tol := resTol(q, v)
-	var pr if97.Props
-	for it := 0; it < maxIter; it++ {
-		pr = eval(r, a, T)
-		res := value(q, &pr) - v
-		if math.Abs(res) <= tol {
-			return pr, true
-		}
-		da, dT := partials(q, r, &pr)
-		if onT {
-			if dT == 0 || math.IsNaN(dT) {
-				return pr, false
-			}
-			raw := -res / dT
-			if math.Abs(raw) <= 1e-14*T {
-				return pr, true // below rounding: no better point exists
-			}
-			T += limitStep(1, T, raw, b.tMin, b.tMax, T/3) * raw
-			continue
-		}
-		if da == 0 || math.IsNaN(da) {
-			return pr, false
-		}
-		raw := -res / da
-		if math.Abs(raw) <= 1e-14*math.Abs(a) {
-			return pr, true
-		}
-		a += limitStep(1, a, raw, b.aMin, b.aMax, 2*a) * raw
 	}
 	return pr, false
 }

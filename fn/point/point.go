@@ -150,9 +150,9 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 		// it, and the limit in the user's unit, so the message reads in
 		// their units too.
 		for i, g := range given {
-			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
+			if in[i].Q == ie.Q {
 				echo := "given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit)
-				if u := us[i]; ie.HasLimit && u.Name != ie.Unit && !(u.Name == "" && ie.Unit == "fraction") {
+				if u, base := us[i], ie.Q.BaseUnit(); ie.HasLimit && u.Name != base && !(u.Name == "" && base == "fraction") {
 					echo += "; the limit is " + strconv.FormatFloat(u.FromBase(ie.Limit, opt.Patm), 'g', 8, 64)
 					if u.Name != "" {
 						echo += " " + u.Name
@@ -252,7 +252,9 @@ func Render(st *fn.State, syms []string, opt Options) Answer {
 		syms = defaultSymbols
 	}
 	a := Answer{Phase: st.Phase.String(), Region: st.Region, Units: map[string]string{}, Set: opt.Set.Name()}
-	a.Warnings = append(a.Warnings, st.Warnings...)
+	for _, n := range st.Warnings {
+		a.Warnings = append(a.Warnings, n.String())
+	}
 	for _, sym := range syms {
 		p, _ := Lookup(sym)
 		if p.get == nil {
