@@ -1,6 +1,7 @@
 package fn
 
 import (
+	"math"
 	"sync"
 
 	"steamcell/fn/if97"
@@ -16,7 +17,57 @@ func accept(r int, pr *if97.Props) bool {
 	if if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
 		return false
 	}
-	return r != 3 || stable3(pr)
+	if r == 3 {
+		return stable3(pr)
+	}
+	// onBoundary may not carry a state across the saturation line: that
+	// would give region 1's liquid at a vapour's (p, T) or the reverse.
+	if pr.T <= T13 && (r == 1 || r == 2) {
+		return (pr.P >= if97.SatPressure(pr.T)) == (r == 1)
+	}
+	return true
+}
+
+// satBand is the relative distance from ps(T) within which a
+// single-phase answer is compared with the saturated phases at its
+// temperature (onSatPhase). A pair that pins p loosely (v of cold liquid
+// moves p by 3e-9 of ps at 1e-15 in v) lands that far from the line.
+const satBand = 1e-6
+
+// onSatPhase returns the saturated phase (x = 0 or 1) that a single-phase
+// answer pr to q1 = x, q2 = y cannot be told from: where both inputs are
+// the phase's own within the solve's tolerance (sameInput), the answer is
+// that phase, whichever pair gave it, as the fallbacks' onLine test makes
+// it too.
+func onSatPhase(pr *if97.Props, q1 Quantity, x float64, q2 Quantity, y float64) (State, bool) {
+	if !(pr.T < if97.Tc) || math.Abs(pr.P/if97.SatPressure(pr.T)-1) > satBand {
+		return State{}, false
+	}
+	var sat Saturation
+	var ok bool
+	switch q1 {
+	case Pressure:
+		sat, ok = saturationAtP(x)
+	case Temperature:
+		sat, ok = saturationAt(x)
+	default:
+		sat, ok = saturationAt(pr.T)
+	}
+	if !ok {
+		return State{}, false
+	}
+	for i, ph := range []*if97.Props{&sat.Liquid, &sat.Vapour} {
+		if sameInput(q1, x, ph) && sameInput(q2, y, ph) {
+			return mixture(sat, float64(i)), true
+		}
+	}
+	return State{}, false
+}
+
+// sameInput reports whether input q = val is pr's own within the solve's
+// tolerance (edgeTol).
+func sameInput(q Quantity, val float64, pr *if97.Props) bool {
+	return math.Abs(value(q, pr)-val) <= edgeTol(q, val)
 }
 
 // stable3 reports whether a region-3 state is a stable single phase

@@ -40,6 +40,9 @@ func startHS1(h, s float64) (float64, float64, bool) {
 	return inBox(1, p, T)
 }
 
+// satS2Min is s”(623.15 K), the lower end of SR4-04(2014)'s Tsat(h,s).
+var satS2Min = if97.Region2(P13Sat, T13).S
+
 // hsLowP is the pressure, MPa, below which SR2-01(2014)'s region-1
 // p(h,s) is no start: its permissible error there, 15 kPa (tested in
 // if97's backward12hs_test.go), is a sixth of it.
@@ -112,6 +115,15 @@ func nestedHS(h, s float64) (State, error) {
 	}
 	lo, hi, ok := validSpan(f, math.Log(1e-12), math.Log(PMax))
 	flo, fhi := f(lo), f(hi)
+	// At constant p, dh = T ds: the (p, s) solve's tolerance in s moves h
+	// by up to T times it.
+	tol := resTol(Enthalpy, h) + TMaxHigh*resTol(Entropy, s)
+	switch { // an end of the range, to rounding
+	case ok && flo > 0 && flo <= tol:
+		return Solve(Input{Pressure, math.Exp(lo)}, Input{Entropy, s})
+	case ok && fhi < 0 && -fhi <= tol:
+		return Solve(Input{Pressure, math.Exp(hi)}, Input{Entropy, s})
+	}
 	if !ok || flo > 0 || fhi < 0 {
 		return State{}, pairError(Input{Enthalpy, h}, Input{Entropy, s}, ErrOutOfRange,
 			"no state between {0} and {1} at pressures up to {2} ({3} above {0}) has these values",
@@ -128,8 +140,10 @@ func nestedHS(h, s float64) (State, error) {
 	// The (p, s) solve stops at a residual in s that is fine for (p, s)
 	// but, where h hardly depends on p (cold liquid), leaves p loose: a
 	// last Newton solve on (h, s) pins it.
-	if pr, ok := newton(st.Region, Enthalpy, h, Entropy, s, native(st.Region, &st.Props), st.T, 60, 1e-3); ok && accept(st.Region, &pr) {
-		return singleState(st.Region, pr), nil
+	for _, tf := range []float64{1e-3, 1} {
+		if pr, ok := newton(st.Region, Enthalpy, h, Entropy, s, native(st.Region, &st.Props), st.T, 60, tf); ok && accept(st.Region, &pr) {
+			return singleState(st.Region, pr), nil
+		}
 	}
 	return st, nil
 }
@@ -166,15 +180,23 @@ func twoPhaseHS(h, s float64) (State, bool, error) {
 		l, v := &sat.Liquid, &sat.Vapour
 		return (h-l.H)/(v.H-l.H) - (s-l.S)/(v.S-l.S)
 	}
-	lo, hi := TMin, tb
-	if s >= regionSpans.s3Max { // SR4-04(2014) Tsat(h,s), valid from s''(623.15 K) up, starts a narrow bracket
+	// At Tc the phases are one and g has no value: the bracket stops a
+	// hair below it.
+	lo, hi := TMin, math.Min(tb, if97.Tc*(1-1e-12))
+	if s >= satS2Min { // SR4-04(2014) Tsat(h,s), valid from s''(623.15 K) up, starts a narrow bracket
 		if t0 := if97.SatTFromHS(h, s); t0 > lo && t0 < hi {
 			if a, b := math.Max(lo, t0-0.05), math.Min(hi, t0+0.05); g(a)*g(b) <= 0 {
 				lo, hi = a, b
 			}
 		}
 	}
-	T, ok := rootBrent(g, lo, hi, g(lo), g(hi), 1e-14)
+	glo, ghi := g(lo), g(hi)
+	if glo*ghi > 0 && math.Abs(ghi) <= 1e-12 {
+		// On the saturation line itself (x = 0 or 1): rounding put the
+		// root's sign change just past the bracket's end.
+		ghi = 0
+	}
+	T, ok := rootBrent(g, lo, hi, glo, ghi, 1e-14)
 	if !ok {
 		return State{}, false, solverFailed("two-phase temperature at (h, s)")
 	}

@@ -141,6 +141,9 @@ func fallbackIsobar(p float64, q Quantity, val float64, gv Input) (State, error)
 		}
 		if val < qlo {
 			if prev == nil {
+				if qlo-val <= edgeTol(q, val) { // the bottom of the range, to rounding
+					return singleState(st.r, lo), nil
+				}
 				return State{}, belowAtP(gv, q, val, qlo, tLo, p)
 			}
 			return bridgeAtP(*prev, p, q, val)
@@ -149,10 +152,24 @@ func fallbackIsobar(p float64, q Quantity, val float64, gv Input) (State, error)
 			return solvedOn(*st, p, q, val)
 		}
 		if prev = st; i == len(sts)-1 {
+			if val-qhi <= edgeTol(q, val) { // the top of the range, to rounding
+				return singleState(st.r, hi), nil
+			}
 			return State{}, aboveAtP(gv, q, val, qhi, tHi, p)
 		}
 	}
 	return State{}, solverFailed("placing the value along the isobar")
+}
+
+// edgeTol is how far q = val may lie outside the range and still be its
+// edge: the solves' residual tolerance (resTol), and for v and ρ four
+// units of rounding, what v = 1/ρ and back can change (p and T, given
+// exactly, likewise).
+func edgeTol(q Quantity, val float64) float64 {
+	if q == Volume || q == Density || q == Pressure || q == Temperature {
+		return 1e-15 * math.Abs(val)
+	}
+	return resTol(q, val)
 }
 
 // belowAtP and aboveAtP report q = val beyond its range along the isobar.
@@ -374,8 +391,11 @@ func twoPV(gv Input, v, p float64, alts []Figure, text string) error {
 func liquidAtPV(p, v, tTop float64, gv Input) (State, error) {
 	cold := if97.Region1(p, TMin)
 	if cold.AlphaV >= 0 { // no density maximum inside the range at this p
-		if v < cold.V {
+		if v < cold.V-edgeTol(Volume, v) {
 			return State{}, volumeOutOfRange(gv, cold.V, true, "its value at {1} and p = {2}", fig(Temperature, TMin), fig(Pressure, p))
+		}
+		if v <= cold.V {
+			return singleState(1, cold), nil
 		}
 		return solvedOn(stretch{1, TMin, tTop, true}, p, Volume, v)
 	}

@@ -42,7 +42,7 @@ func fallbackTV(T, v float64, g given) (State, error) {
 		vmin := quantityAt(Volume, pTop, T)
 		return volumeOutOfRange(gv, vmin, true, "its value at {1} and T = {2}", fig(Pressure, pTop), fig(Temperature, T))
 	}
-	denseOK := func() bool { return v >= quantityAt(Volume, pTop, T) }
+	denseOK := func() bool { return v >= quantityAt(Volume, pTop, T)-edgeTol(Volume, v) }
 	if T < if97.Tc {
 		sat, ok := saturationAt(T)
 		if !ok {
@@ -74,7 +74,7 @@ func fallbackTV(T, v float64, g given) (State, error) {
 	pb := if97.B23Pressure(T)
 	pr := if97.Region3(1/v, T)
 	switch {
-	case pr.P > pTop || pr.P >= pb && !region3Dense(&pr):
+	case pr.P > pTop*(1+1e-12) || pr.P >= pb && !region3Dense(&pr): // 1e-12: p at the top, to the rounding of v
 		return State{}, tooDense()
 	case pr.P >= pb:
 		if !stable3(&pr) {
@@ -83,6 +83,16 @@ func fallbackTV(T, v float64, g given) (State, error) {
 			return State{}, solverFailed("region-3 state at (T, v) inside the saturation dome")
 		}
 		return singleState(3, pr), nil
+	}
+	if v2 := if97.Region2(pb, T).V; v < v2 && pr.KappaT > 0 {
+		// v lies between region 2's value on the B23 line and region 3's
+		// (their equations agree there only within IF97's consistency):
+		// the boundary state, from region 3's own variables, continued
+		// just below the line.
+		s := singleState(3, pr)
+		s.Warnings = append(s.Warnings, note("this value lies between the values that the equations of IF97 regions 2 and 3 give on their boundary at {0}; region 3's equation is continued to {1}, within the consistency IF97 states for the two",
+			fig(Pressure, pb), fig(Pressure, pr.P)))
+		return s, nil
 	}
 	return solvedAtT(2, T, Volume, v, 0, pb)
 }
@@ -208,8 +218,19 @@ func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Satura
 		}
 	}
 	qMin, qMax = qMin+val, qMax+val
+	if st, ok := atIsothermEnd(T, q, val, bs); ok && !seen(found, st.P) {
+		found = append(found, st)
+	}
+	if len(found) == 0 {
+		if st, ok := bridgeOnIsotherm(T, q, val, bs); ok {
+			return st, nil
+		}
+	}
 	switch len(found) {
 	case 0:
+		if val >= qMin && val <= qMax {
+			return State{}, solverFailed("search along the isotherm")
+		}
 		return State{}, outOfRangeAlongIsotherm(q, val, T, qMin, qMax)
 	case 1:
 		return found[0], nil
@@ -218,8 +239,9 @@ func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Satura
 	var alts []Figure
 	var names []string
 	for i, s := range found {
-		alts = append(alts, fig(Pressure, s.P))
-		figs = append(figs, fig(Pressure, s.P))
+		p := math.Min(s.P, pMaxAtT(T)) // a root at the top of the range, to rounding
+		alts = append(alts, fig(Pressure, p))
+		figs = append(figs, fig(Pressure, p))
 		names = append(names, "p = {"+strconv.Itoa(i+2)+"} ("+s.Phase.String()+")")
 	}
 	return State{}, &InputError{Input: "t," + q.Symbol(), Pair: true, Kind: ErrTwoSolutions, Alternatives: alts,
@@ -309,11 +331,51 @@ func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
 	return State{}, false
 }
 
+// atIsothermEnd returns the state at the top end of the isotherm (its
+// highest pressure) if its q is val within the solve's tolerance: the
+// samples on the collapsed equation can miss a root that rounding puts
+// just outside the range, or right on its end.
+func atIsothermEnd(T float64, q Quantity, val float64, bs []branch) (State, bool) {
+	b := bs[len(bs)-1]
+	pr := eval(b.r, b.hi, T)
+	if math.Abs(value(q, &pr)-val) <= resTol(q, val) && accept(b.r, &pr) {
+		return singleState(b.r, pr), true
+	}
+	return State{}, false
+}
+
+// bridgeOnIsotherm returns the state where val falls in the gap between
+// the values of two neighbouring stretches of the isotherm at their common
+// boundary (regions 2 and 3 on the B23 line, whose equations agree there
+// only within IF97's consistency; see fallbackIsobar): the lower
+// stretch's equation continued past its top by Newton steps at fixed T.
+func bridgeOnIsotherm(T float64, q Quantity, val float64, bs []branch) (State, bool) {
+	for i := 0; i+1 < len(bs); i++ {
+		b, next := bs[i], bs[i+1]
+		top, bottom := eval(b.r, b.hi, T), eval(next.r, next.lo, T)
+		qt, qb := value(q, &top), value(q, &bottom)
+		tol := resTol(q, val)
+		if !(val >= math.Min(qt, qb)-tol && val <= math.Max(qt, qb)+tol) || b.r == next.r {
+			continue
+		}
+		pr, ok := newton(b.r, Temperature, T, q, val, b.hi, T, maxNewtonSteps, 1)
+		if !ok || math.Abs(pr.P/top.P-1) > 1e-3 {
+			continue
+		}
+		s := singleState(b.r, pr)
+		s.Warnings = append(s.Warnings, note("this value lies between the values that the equations of two neighbouring IF97 regions give at their boundary at {0}; region "+strconv.Itoa(b.r)+"'s equation is continued to {1}, within the consistency IF97 states for the two",
+			fig(Pressure, top.P), fig(Pressure, pr.P)))
+		return s, true
+	}
+	return State{}, false
+}
+
 // seen reports whether a state at pressure p is already in found (the same
-// state reached from two regions at their common boundary).
+// state reached from two regions at their common boundary, or a saturated
+// phase reached from its single-phase side too).
 func seen(found []State, p float64) bool {
 	for _, s := range found {
-		if math.Abs(s.P-p) <= 1e-9*p && !s.HasX {
+		if math.Abs(s.P-p) <= 1e-8*p {
 			return true
 		}
 	}

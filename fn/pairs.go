@@ -74,6 +74,9 @@ func (ps *pairSolver) solvePair(x, y float64, g given) (State, error) {
 		}
 		pr, ok := newton(c.r, ps.q1, x, ps.q2, y, a, T, maxNewtonSteps, ps.tolFactor)
 		if ok && accept(c.r, &pr) && (ps.unique == nil || ps.unique(c.r, &pr, x, y)) {
+			if st, ok := onSatPhase(&pr, ps.q1, x, ps.q2, y); ok {
+				return st, nil
+			}
 			return singleState(c.r, pr), nil
 		}
 	}
@@ -160,17 +163,23 @@ func nearRegion(r int, p, T float64) bool {
 // smallest s at 100 MPa on the B23 line too; region 3 spans the densities
 // from its 100 MPa, 623.15 K corner to saturated vapour at 623.15 K and
 // the entropies from that corner to the same vapour.
+//
+// Each extreme is widened by IF97's consistency at the region boundaries
+// (R7-97(2012) section 4, as recalled: |Δv/v| ≤ 0.05 %, |Δs| ≤
+// 0.2 J/(kg·K)), since the neighbouring region's equation gives the
+// corner within that.
 var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min float64 }) {
+	const dv, ds = 5e-4, 2e-4 // relative in v; kJ/(kg·K) in s
 	tb := if97.B23Temperature(PMax)
 	l, g := if97.Region1(P13Sat, T13), if97.Region2(P13Sat, T13)
 	c1 := if97.Region1(PMax, T13)
 	c2 := if97.Region2(PMax, tb)
 	c5 := if97.Region5(PMaxHigh, TMax)
-	sp.v1Max, sp.s1Max = l.V, l.S
-	sp.v2Min, sp.s2Min = c2.V, c2.S
-	sp.v3Min, sp.v3Max = c1.V, g.V
-	sp.s3Min, sp.s3Max = c1.S, g.S
-	sp.v5Min, sp.s5Min = c5.V, c5.S
+	sp.v1Max, sp.s1Max = l.V*(1+dv), l.S+ds
+	sp.v2Min, sp.s2Min = c2.V*(1-dv), c2.S-ds
+	sp.v3Min, sp.v3Max = c1.V*(1-dv), g.V*(1+dv)
+	sp.s3Min, sp.s3Max = c1.S-ds, g.S+ds
+	sp.v5Min, sp.s5Min = c5.V*(1-dv), c5.S-ds
 	return sp
 }()
 

@@ -37,8 +37,19 @@ func region3DensityOn(p, T float64, liquid bool) (float64, bool) {
 	if rho, ok := region3Newton(p, T, 1/v0); ok && onBranch(rho, T, liquid) {
 		return rho, true
 	}
-	rho, ok := region3Bracketed(p, T, 1/v0)
-	return rho, ok && onBranch(rho, T, liquid)
+	if rho, ok := region3Bracketed(p, T, 1/v0); ok && onBranch(rho, T, liquid) {
+		return rho, true
+	}
+	if !liquid {
+		// Vapour within rounding of both 623.15 K and the saturation line,
+		// where B23 and the line cross: SR5-05 has no vapour sub-region
+		// inside region 3 there, and region 2's density, equal to region
+		// 3's on B23 within IF97's consistency, starts the steps.
+		if rho, ok := region3Newton(p, T, if97.Region2(p, T).Rho); ok && onBranch(rho, T, false) {
+			return rho, true
+		}
+	}
+	return 0, false
 }
 
 // region3Start is the SR5-05(2016) estimate of v at (p, T), moved by the

@@ -1,6 +1,8 @@
 package fn
 
 import (
+	"math"
+
 	"steamcell/fn/if97"
 )
 
@@ -56,7 +58,8 @@ func saturationAtP(p float64) (Saturation, bool) {
 
 // satPhases returns the saturated phases at (p, T) on the line.
 func satPhases(p, T float64) (Saturation, bool) {
-	if T <= T13 {
+	if T <= T13 || p <= P13Sat { // Eq. 31 at P13Sat gives T13 only to rounding
+		T = math.Min(T, T13)
 		return Saturation{P: p, T: T, Liquid: if97.Region1(p, T), Vapour: if97.Region2(p, T)}, true
 	}
 	if T >= if97.Tc {

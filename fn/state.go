@@ -112,9 +112,20 @@ func evalPT(r int, p, T float64) (if97.Props, error) {
 }
 
 // singleState wraps the properties of a single-phase state with its phase,
-// region and warnings.
+// region and warnings. The phase is that of the region's equation where
+// the region decides it (region 1 is liquid, regions 2 and 5 vapour or
+// supercritical fluid), so that a state within rounding of the saturation
+// line keeps the phase of the equation it was solved on; region 3 takes
+// singlePhase, which matches its branch (stable3).
 func singleState(r int, pr if97.Props) State {
-	s := State{Props: pr, Region: r, Phase: singlePhase(pr.P, pr.T)}
+	ph := singlePhase(pr.P, pr.T)
+	switch {
+	case r == 1:
+		ph = CompressedLiquid
+	case (r == 2 || r == 5) && ph == CompressedLiquid:
+		ph = SuperheatedVapour
+	}
+	s := State{Props: pr, Region: r, Phase: ph}
 	s.Warnings = warnings(&s)
 	return s
 }

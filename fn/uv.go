@@ -2,6 +2,7 @@ package fn
 
 import (
 	"math"
+	"strconv"
 
 	"steamcell/fn/if97"
 )
@@ -32,6 +33,23 @@ func startUV5(v, u float64) (float64, float64, bool) {
 	return math.Min(PMaxHigh, if97.R*t/(mpaM3*v)), t, v >= regionSpans.v5Min && vapourT(u, v) > TMax
 }
 
+// rootSampled finds a root of f on [lo, hi] by sampling f at 64 points
+// and running Brent's method between the neighbouring samples, both
+// defined, where f changes sign.
+func rootSampled(f func(float64) float64, lo, hi float64) (float64, bool) {
+	const n = 64
+	xa, fa := lo, f(lo)
+	for i := 1; i <= n; i++ {
+		xb := lo + (hi-lo)*float64(i)/n
+		fb := f(xb)
+		if !math.IsNaN(fa) && !math.IsNaN(fb) && fa*fb <= 0 {
+			return rootBrent(f, xa, xb, fa, fb, 1e-15)
+		}
+		xa, fa = xb, fb
+	}
+	return 0, false
+}
+
 // vapourT is the rough start of T for vapour of internal energy u and
 // volume v, from u ≈ 2375 + 1.5 (T − 273.15) − 3.5/v kJ/kg.
 func vapourT(u, v float64) float64 { return TMin + (u+3.5/v-2375)/1.5 }
@@ -60,6 +78,9 @@ func fallbackUV(v, u float64, g given) (State, error) {
 			return State{}, err // v itself is outside the range at 273.15 K
 		}
 	}
+	if flo > 0 && flo <= resTol(InternalEnergy, u) { // the bottom of the range, to rounding
+		return tv(tLo)
+	}
 	if flo > 0 {
 		return State{}, outOfRange(InternalEnergy, u, u-flo, "u below {0}, its value at {1} for this "+gv.Q.Symbol(),
 			fig(InternalEnergy, u-flo), fig(Temperature, tLo))
@@ -70,7 +91,7 @@ func fallbackUV(v, u float64, g given) (State, error) {
 	fhi := f(tHi)
 	if math.IsNaN(fhi) {
 		a, b := tLo, tHi
-		for i := 0; i < 60 && b-a > 1e-9*b; i++ {
+		for i := 0; i < 64 && b-a > 1e-15*b; i++ {
 			m := (a + b) / 2
 			if math.IsNaN(f(m)) {
 				b = m
@@ -81,13 +102,53 @@ func fallbackUV(v, u float64, g given) (State, error) {
 		tHi = a
 		fhi = f(tHi)
 	}
+	if fhi < 0 && -fhi <= resTol(InternalEnergy, u) {
+		return tv(tHi)
+	}
 	if fhi < 0 {
 		return State{}, outOfRange(InternalEnergy, u, u-fhi, "u above {0}, its highest value for this "+gv.Q.Symbol()+" within the range of validity (at {1})",
 			fig(InternalEnergy, u-fhi), fig(Temperature, tHi))
 	}
 	T, ok := rootBrent(f, tLo, tHi, flo, fhi, 1e-15)
 	if !ok {
+		// A point of the isochore where (T, v) has no answer (the gap
+		// between regions 1 and 3 at 623.15 K) stopped the solve: narrow
+		// the bracket by samples to the stretch of the sign change.
+		T, ok = rootSampled(f, tLo, tHi)
+	}
+	if !ok {
+		// Rounding noise in u(T) (a mixture on one side, the liquid on
+		// the other) can keep the bracket from closing to 1e-15 at a
+		// root: the last point stands if it meets the tolerance.
+		for _, t := range []float64{T, math.Nextafter(T, 0), math.Nextafter(T, math.Inf(1))} {
+			if st, err := tv(t); err == nil && math.Abs(st.U-u) <= resTol(InternalEnergy, u) {
+				return st, nil
+			}
+		}
+	}
+	if !ok {
 		return State{}, solverFailed("bracketed solve in T along the isochore")
 	}
-	return tv(T)
+	st, err := tv(T)
+	if err != nil || st.HasX || math.Abs(st.U-u) <= resTol(InternalEnergy, u) {
+		return st, err
+	}
+	// u jumps where the isochore crosses a region boundary (the
+	// neighbouring equations agree only within IF97's consistency), and
+	// the root is that jump: the state is the boundary state, from the
+	// equation of the side the solve ended on, continued past it.
+	for _, r := range []int{st.Region, 1, 2, 3} {
+		a := 1 / v // region 3 starts at the given density
+		if r != 3 {
+			a = st.P
+		}
+		pr, ok := newton(r, Volume, v, InternalEnergy, u, a, st.T, maxNewtonSteps, 1)
+		if !ok || math.Abs(pr.T-T) > bridgeMaxK || !(pr.P > 0 && pr.P <= PMax) {
+			continue
+		}
+		b := singleState(r, pr)
+		b.Warnings = append(b.Warnings, note("this state lies on the boundary of IF97 region "+strconv.Itoa(r)+", whose equation is continued past it to meet the given values, within the consistency IF97 states between neighbouring regions"))
+		return b, nil
+	}
+	return State{}, solverFailed("continuing a region's equation across the gap at its boundary")
 }
