@@ -29,6 +29,11 @@ func FuzzSolve(f *testing.F) {
 	}
 	f.Fuzz(func(t *testing.T, qa, qb int, a, b float64) {
 		st, err := Solve(Input{Quantity(qa), a}, Input{Quantity(qb), b})
+		var ie *InputError
+		if err != nil && !errors.As(err, &ie) {
+			// A solve that did not converge (ErrSolver) is our fault.
+			t.Fatalf("Solve(%v=%g, %v=%g): %v", Quantity(qa), a, Quantity(qb), b, err)
+		}
 		if err != nil {
 			return
 		}
