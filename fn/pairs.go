@@ -47,8 +47,9 @@ type pairSolver struct {
 	// tolFactor scales the residual tolerance, see newton.
 	tolFactor float64
 	// unique, if set, must hold for an accepted state: (p,v) has two
-	// liquid states near water's density maximum.
-	unique func(r int, pr *if97.Props, x, y float64) bool
+	// liquid states near water's density maximum. It takes pr by value:
+	// a pointer handed to a function value escapes to the heap.
+	unique func(r int, pr if97.Props, x, y float64) bool
 	// fallback is the bracketed solve; g holds the inputs as given, for
 	// its errors.
 	fallback func(x, y float64, g given) (State, error)
@@ -73,7 +74,7 @@ func (ps *pairSolver) solvePair(x, y float64, g given) (State, error) {
 			T = quickSteps(c.r, a, ps.q2, y, T)
 		}
 		pr, ok := newton(c.r, ps.q1, x, ps.q2, y, a, T, maxNewtonSteps, ps.tolFactor)
-		if ok && accept(c.r, &pr) && (ps.unique == nil || ps.unique(c.r, &pr, x, y)) {
+		if ok && accept(c.r, &pr) && (ps.unique == nil || ps.unique(c.r, pr, x, y)) {
 			if st, ok := onSatPhase(&pr, ps.q1, x, ps.q2, y); ok {
 				return st, nil
 			}
@@ -222,7 +223,7 @@ func startPV2(p, v float64) (float64, float64, bool) {
 // uniquePV: a liquid v fits two temperatures where it is below its value
 // at 273.15 K (the density maximum lies between, αv = 0); the fallback
 // reports those. Above it, and on the rising side (αv > 0), one only.
-func uniquePV(r int, pr *if97.Props, p, v float64) bool {
+func uniquePV(r int, pr if97.Props, p, v float64) bool {
 	return r != 1 || pr.AlphaV > 0 && v > if97.Region1(p, TMin).V
 }
 

@@ -20,9 +20,11 @@ import (
 // not converge is a *SolverError, whose kind is ErrSolver.
 func Solve(a, b Input) (State, error) {
 	st, err := solve(a, b)
-	var se *SolverError
-	if errors.As(err, &se) {
-		se.Inputs = [2]Input{a, b}
+	if err != nil {
+		var se *SolverError
+		if errors.As(err, &se) {
+			se.Inputs = [2]Input{a, b}
+		}
 	}
 	return st, err
 }
