@@ -169,8 +169,10 @@ func newton(r int, q1 Quantity, v1 float64, q2 Quantity, v2 float64, a, T float6
 		lam = limitStep(lam, a, da, b.aMin, b.aMax, 2*a)
 		if lam == 1 && math.Abs(da) <= 1e-14*math.Abs(a) && math.Abs(dT) <= 1e-14*T {
 			// The step is below rounding: no better point exists, and
-			// the point stands if it meets the plain tolerance.
-			return pr, math.Abs(e1) <= tol1/tolFactor && math.Abs(e2) <= tol2/tolFactor
+			// the point stands if it meets the plain tolerance (for v and
+			// ρ, which stop only at rounding, the rounding of a solve in
+			// two variables, 1e-12).
+			return pr, math.Abs(e1) <= roundTol(q1, v1, tol1/tolFactor) && math.Abs(e2) <= roundTol(q2, v2, tol2/tolFactor)
 		}
 		if lam == 1 && math.Abs(e1) <= tol1/tolFactor && math.Abs(e2) <= tol2/tolFactor &&
 			math.Abs(da) <= 1e-10*math.Abs(a) && math.Abs(dT) <= 1e-13*T {
@@ -203,6 +205,15 @@ func resTol(q Quantity, v float64) float64 {
 		floor = 0.01 // kJ/(kg·K)
 	}
 	return 2e-10 * math.Max(math.Abs(v), floor)
+}
+
+// roundTol is the residual a point at rounding may keep: tol, or for v
+// and ρ 1e-12 relative.
+func roundTol(q Quantity, v, tol float64) float64 {
+	if q == Volume || q == Density {
+		return math.Max(tol, 1e-12*math.Abs(v))
+	}
+	return tol
 }
 
 // limitStep shrinks lam so that x + lam·dx stays inside [lo, hi] (stopping

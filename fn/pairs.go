@@ -46,6 +46,11 @@ type pairSolver struct {
 	quick bool
 	// tolFactor scales the residual tolerance, see newton.
 	tolFactor float64
+	// steps bounds each candidate's Newton solve: a start from a backward
+	// equation reaches rounding in one to three steps, so a candidate that
+	// needs more than eight is in the wrong region; the rough starts need
+	// up to a dozen, the (h,s) starts from SR2-01 at low p up to twenty.
+	steps int
 	// unique, if set, must hold for an accepted state: (p,v) has two
 	// liquid states near water's density maximum. It takes pr by value:
 	// a pointer handed to a function value escapes to the heap.
@@ -58,9 +63,8 @@ type pairSolver struct {
 // given is the pair as the user gave it (ρ as ρ), in canonical order.
 type given [2]Input
 
-// maxNewtonSteps bounds a candidate's Newton solve: from a start within
-// its backward equation's accuracy, one to three steps reach rounding; the
-// rough starts need up to a dozen.
+// maxNewtonSteps bounds the Newton solves outside the candidates (the
+// bridges across boundary gaps, the tests).
 const maxNewtonSteps = 20
 
 // solvePair solves the pair x, y by its candidates, then its fallback.
@@ -73,7 +77,7 @@ func (ps *pairSolver) solvePair(x, y float64, g given) (State, error) {
 		if ps.quick && c.r != 3 {
 			T = quickSteps(c.r, a, ps.q2, y, T)
 		}
-		pr, ok := newton(c.r, ps.q1, x, ps.q2, y, a, T, maxNewtonSteps, ps.tolFactor)
+		pr, ok := newton(c.r, ps.q1, x, ps.q2, y, a, T, ps.steps, ps.tolFactor)
 		if ok && accept(c.r, &pr) && (ps.unique == nil || ps.unique(c.r, pr, x, y)) {
 			if st, ok := onSatPhase(&pr, ps.q1, x, ps.q2, y); ok {
 				return st, nil
@@ -96,20 +100,20 @@ func pairs() map[[2]Quantity]*pairSolver {
 	return map[[2]Quantity]*pairSolver{
 		{Pressure, Enthalpy}: isobarPair(Enthalpy),
 		{Pressure, Entropy}:  isobarPair(Entropy),
-		{Pressure, Volume}: {q1: Pressure, q2: Volume, tolFactor: 1, cands: []candidate{
+		{Pressure, Volume}: {q1: Pressure, q2: Volume, tolFactor: 1, steps: 12, cands: []candidate{
 			{1, startPV1}, {3, startPV3}, {5, startPV5}, {2, startPV2}},
 			unique: uniquePV, fallback: fallbackPV},
-		{Temperature, Volume}: {q1: Temperature, q2: Volume, tolFactor: 1, cands: []candidate{
+		{Temperature, Volume}: {q1: Temperature, q2: Volume, tolFactor: 1, steps: 12, cands: []candidate{
 			{1, startTV1}, {3, startTV3}, {2, startTV2}, {5, startTV5}},
 			fallback: fallbackTV},
 		{Temperature, Enthalpy}: {q1: Temperature, q2: Enthalpy, fallback: searchTQ},
 		{Temperature, Entropy}:  {q1: Temperature, q2: Entropy, fallback: searchTQ},
 		// (∂h/∂p)_s = v is small in cold liquid, so h and s together pin p
 		// only at a residual tolerance 1e-3 of the plain one (see newton).
-		{Enthalpy, Entropy}: {q1: Enthalpy, q2: Entropy, tolFactor: 1e-3, cands: []candidate{
+		{Enthalpy, Entropy}: {q1: Enthalpy, q2: Entropy, tolFactor: 1e-3, steps: 20, cands: []candidate{
 			{1, startHS1}, {3, startHS3}, {2, startHS2}, {5, startHS5}},
 			fallback: fallbackHS},
-		{Volume, InternalEnergy}: {q1: Volume, q2: InternalEnergy, tolFactor: 1, cands: []candidate{
+		{Volume, InternalEnergy}: {q1: Volume, q2: InternalEnergy, tolFactor: 1, steps: 20, cands: []candidate{
 			{3, startUV3}, {1, startUV1}, {2, startUV2}, {5, startUV5}},
 			fallback: fallbackUV},
 	}
@@ -140,7 +144,7 @@ func isobarPair(q Quantity) *pairSolver {
 		}
 		return 1 / v, T, v > 0 && nearRegion(3, p, T)
 	}
-	return &pairSolver{q1: Pressure, q2: q, quick: true, tolFactor: 1,
+	return &pairSolver{q1: Pressure, q2: q, quick: true, tolFactor: 1, steps: 8,
 		cands:    []candidate{{1, gibbs(1)}, {2, gibbs(2)}, {5, gibbs(5)}, {3, three}},
 		fallback: func(p, val float64, _ given) (State, error) { return fallbackPQ(p, q, val) }}
 }

@@ -24,6 +24,15 @@ func startUV1(v, u float64) (float64, float64, bool) {
 }
 
 func startUV2(v, u float64) (float64, float64, bool) {
+	if v >= regionSpans.v3Min && v <= regionSpans.v3Max {
+		// Dense vapour near the B23 line: region 3's equation at the
+		// given density, solved for T alone and continued a little past
+		// its boundary, lands close to region 2's answer (the two agree on
+		// the boundary), a far better start than the ideal gas.
+		if pr, ok := newton(3, Volume, v, InternalEnergy, u, 1/v, (T13+if97.B23Temperature(PMax))/2, 20, 1); ok && pr.P > 0 && pr.P <= PMax {
+			return pr.P, pr.T, true
+		}
+	}
 	t := math.Min(TMax, math.Max(TMin, vapourT(u, v)))
 	return if97.R * t / (mpaM3 * v), t, v >= regionSpans.v2Min
 }
