@@ -49,7 +49,7 @@ var satS2Min = if97.Region2(P13Sat, T13).S
 const hsLowP = 0.1
 
 func startHS2(h, s float64) (float64, float64, bool) {
-	if s < regionSpans.s2Min {
+	if s < regionSpans.s2Min || h > regionSpans.h2Max {
 		return 0, 0, false
 	}
 	p := if97.Region2PFromHS(h, s)

@@ -85,8 +85,7 @@ func (st stretch) atP(p, T float64) (if97.Props, bool) {
 	if st.r != 3 {
 		return eval(st.r, p, T), true
 	}
-	rho, ok := region3DensityOn(p, T, st.liquid || p >= if97.Pc)
-	return if97.Region3(rho, T), ok
+	return region3At(p, T, st.liquid || p >= if97.Pc)
 }
 
 // fallbackIsobar solves (p, q) for q rising with T along the isobar (h, s,

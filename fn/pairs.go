@@ -114,7 +114,7 @@ func pairs() map[[2]Quantity]*pairSolver {
 			{1, startHS1}, {3, startHS3}, {2, startHS2}, {5, startHS5}},
 			fallback: fallbackHS},
 		{Volume, InternalEnergy}: {q1: Volume, q2: InternalEnergy, tolFactor: 1, steps: 20, cands: []candidate{
-			{3, startUV3}, {1, startUV1}, {2, startUV2}, {5, startUV5}},
+			{3, startUV3}, {1, startUV1}, {5, startUV5}, {2, startUV2}},
 			fallback: fallbackUV},
 	}
 }
@@ -124,6 +124,10 @@ func pairs() map[[2]Quantity]*pairSolver {
 // R7-97(2012) (regions 1 and 2, region 2's continued past 1073.15 K for
 // region 5) and SR3-03(2014) (region 3).
 func isobarPair(q Quantity) *pairSolver {
+	q5Min := regionSpans.s5Min
+	if q == Enthalpy {
+		q5Min = regionSpans.h5Min
+	}
 	gibbs := func(r int) func(p, val float64) (float64, float64, bool) {
 		return func(p, val float64) (float64, float64, bool) {
 			br := r
@@ -132,6 +136,12 @@ func isobarPair(q Quantity) *pairSolver {
 			}
 			T := backwardT(br, p, q, val)
 			if r == 5 {
+				// Region 2's equation run wild on a region-3 value can
+				// land above 1073.15 K: region 5 holds no value below its
+				// smallest, at 50 MPa and 1073.15 K.
+				if val < q5Min {
+					return 0, 0, false
+				}
 				T = math.Min(T, TMaxHigh)
 			}
 			return p, T, nearRegion(r, p, T)
@@ -173,7 +183,11 @@ func nearRegion(r int, p, T float64) bool {
 // (R7-97(2012) section 4, as recalled: |Δv/v| ≤ 0.05 %, |Δs| ≤
 // 0.2 J/(kg·K)), since the neighbouring region's equation gives the
 // corner within that.
-var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min float64 }) {
+//
+// Region 5's smallest h is at that corner too, and region 2's largest h
+// at 1073.15 K and p → 0 (h rises as p falls along every isotherm of
+// region 2), taken at region 2's lowest pressure in the solves, 1e-9 MPa.
+var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h2Max, h5Min float64 }) {
 	const dv, ds = 5e-4, 2e-4 // relative in v; kJ/(kg·K) in s
 	tb := if97.B23Temperature(PMax)
 	l, g := if97.Region1(P13Sat, T13), if97.Region2(P13Sat, T13)
@@ -185,6 +199,8 @@ var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s
 	sp.v3Min, sp.v3Max = c1.V*(1-dv), g.V*(1+dv)
 	sp.s3Min, sp.s3Max = c1.S-ds, g.S+ds
 	sp.v5Min, sp.s5Min = c5.V*(1-dv), c5.S-ds
+	const dh = 0.2 // kJ/kg, IF97's consistency in h at the boundaries, as recalled
+	sp.h5Min, sp.h2Max = c5.H-dh, if97.Region2(1e-9, TMax).H+dh
 	return sp
 }()
 

@@ -16,7 +16,13 @@ import (
 // at p (MPa) and T (K): the liquid where p ≥ ps(T) below Tc (phaseAt), the
 // vapour below it.
 func region3Density(p, T float64) (float64, bool) {
-	return region3DensityOn(p, T, T < if97.Tc && p >= if97.SatPressure(T))
+	pr, ok := region3PT(p, T)
+	return pr.Rho, ok
+}
+
+// region3PT is region3Density with the properties at the density found.
+func region3PT(p, T float64) (if97.Props, bool) {
+	return region3At(p, T, T < if97.Tc && p >= if97.SatPressure(T))
 }
 
 // region3DensityOn returns the density (kg/m³) of the region-3 state at p
@@ -30,26 +36,34 @@ func region3Density(p, T float64) (float64, bool) {
 // where (∂p/∂ρ)_T vanishes). The answer must be mechanically stable and on
 // its branch (onBranch).
 func region3DensityOn(p, T float64, liquid bool) (float64, bool) {
+	pr, ok := region3At(p, T, liquid)
+	return pr.Rho, ok
+}
+
+// region3At is region3DensityOn with the properties at the density found.
+func region3At(p, T float64, liquid bool) (if97.Props, bool) {
 	v0 := region3Start(p, T, liquid)
 	if !(v0 > 0) {
-		return 0, false
+		return if97.Props{}, false
 	}
-	if rho, ok := region3Newton(p, T, 1/v0); ok && onBranch(rho, T, liquid) {
-		return rho, true
+	if pr, ok := region3Newton(p, T, 1/v0); ok && onBranch(&pr, liquid) {
+		return pr, true
 	}
-	if rho, ok := region3Bracketed(p, T, 1/v0); ok && onBranch(rho, T, liquid) {
-		return rho, true
+	if rho, ok := region3Bracketed(p, T, 1/v0); ok {
+		if pr := if97.Region3(rho, T); onBranch(&pr, liquid) {
+			return pr, true
+		}
 	}
 	if !liquid {
 		// Vapour within rounding of both 623.15 K and the saturation line,
 		// where B23 and the line cross: SR5-05 has no vapour sub-region
 		// inside region 3 there, and region 2's density, equal to region
 		// 3's on B23 within IF97's consistency, starts the steps.
-		if rho, ok := region3Newton(p, T, if97.Region2(p, T).Rho); ok && onBranch(rho, T, false) {
-			return rho, true
+		if pr, ok := region3Newton(p, T, if97.Region2(p, T).Rho); ok && onBranch(&pr, false) {
+			return pr, true
 		}
 	}
-	return 0, false
+	return if97.Props{}, false
 }
 
 // region3Start is the SR5-05(2016) estimate of v at (p, T), moved by the
@@ -82,27 +96,27 @@ func region3Start(p, T float64, liquid bool) float64 {
 // above ρc and its vapour branch below: ρc lies inside the mechanically
 // unstable stretch, (∂p/∂ρ)_T < 0, of every isotherm from 623.15 K to Tc
 // (TestCriticalDensitySplitsBranches).
-func onBranch(rho, T float64, liquid bool) bool {
-	pr := if97.Region3(rho, T)
+func onBranch(pr *if97.Props, liquid bool) bool {
 	if !(pr.KappaT > 0) {
 		return false
 	}
-	return T >= if97.Tc || liquid == (rho > if97.Rhoc)
+	return pr.T >= if97.Tc || liquid == (pr.Rho > if97.Rhoc)
 }
 
 // region3Newton polishes rho with Newton steps on p(ρ,T) = p until the
-// pressure agrees to 2e-10 (see resTol).
-func region3Newton(p, T, rho float64) (float64, bool) {
+// pressure agrees to 2e-10 (see resTol), and returns the properties there.
+func region3Newton(p, T, rho float64) (if97.Props, bool) {
 	tol := resTol(Pressure, p)
+	var pr if97.Props
 	for it := 0; it < 50; it++ {
-		pr := if97.Region3(rho, T)
+		pr = if97.Region3(rho, T)
 		res := p - pr.P
 		if math.Abs(res) <= tol {
-			return rho, true
+			return pr, true
 		}
 		dpdrho := 1 / (pr.Rho * pr.KappaT)
 		if !(dpdrho > 0) {
-			return rho, false
+			return pr, false
 		}
 		step := res / dpdrho
 		if math.Abs(step) > rho/4 {
@@ -110,7 +124,7 @@ func region3Newton(p, T, rho float64) (float64, bool) {
 		}
 		rho += step
 	}
-	return rho, false
+	return pr, false
 }
 
 // region3Bracketed solves p(ρ,T) = p near rho0 where Newton steps fail (at

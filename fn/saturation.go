@@ -67,15 +67,16 @@ func satPhases(p, T float64) (Saturation, bool) {
 		c.P = if97.Pc
 		return Saturation{P: if97.Pc, T: if97.Tc, Liquid: c, Vapour: c}, true
 	}
-	rl, okl := region3DensityOn(p, T, true)
-	rv, okv := region3DensityOn(p, T, false)
+	l, okl := region3At(p, T, true)
+	v, okv := region3At(p, T, false)
 	if !okl || !okv {
-		var ok bool
-		if rl, rv, ok = if97.Region3SatDensities(T); !ok {
+		rl, rv, ok := if97.Region3SatDensities(T)
+		if !ok {
 			return Saturation{}, false
 		}
+		l, v = if97.Region3(rl, T), if97.Region3(rv, T)
 	}
-	sat := Saturation{P: p, T: T, Liquid: if97.Region3(rl, T), Vapour: if97.Region3(rv, T)}
+	sat := Saturation{P: p, T: T, Liquid: l, Vapour: v}
 	sat.Liquid.P, sat.Vapour.P = p, p
 	return sat, true
 }

@@ -102,11 +102,10 @@ func evalPT(r int, p, T float64) (if97.Props, error) {
 	case 5:
 		return if97.Region5(p, T), nil
 	}
-	rho, ok := region3Density(p, T)
+	pr, ok := region3PT(p, T)
 	if !ok {
 		return if97.Props{}, solverFailed("region-3 density at (p, T)")
 	}
-	pr := if97.Region3(rho, T)
 	pr.P = p // equal to rounding after the Newton polish; keep the input exactly
 	return pr, nil
 }
