@@ -111,6 +111,11 @@ func solvedAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (State, erro
 // bracketed Newton solve in ln p.
 func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, bool) {
 	lo := math.Log(math.Max(pLo, 1e-12))
+	if q == Volume && r != 1 {
+		// A vapour rarer than 1e-12 MPa: the ideal gas bounds it, its
+		// pressure is within a part in 1e9 of R T/v there.
+		lo = math.Min(lo, math.Log(if97.R*T/(mpaM3*val)/2))
+	}
 	hi := math.Log(pHi)
 	f := func(lp float64) (float64, float64) {
 		p := math.Exp(lp)
