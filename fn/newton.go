@@ -124,7 +124,9 @@ func regionBox(r int) box {
 		// region 5's solves their start.
 		return box{1e-9, 1.01 * PMax, TMin - 1, TMaxHigh + 1}
 	case 3:
-		return box{50, 800, T13 - 1, 870}
+		// Region 3's densities span 1/v3Max to 1/v3Min (regionSpans), about
+		// 114 to 700 kg/m³; half and one and a half times those bound it.
+		return box{0.5 / regionSpans.v3Max, 1.5 / regionSpans.v3Min, T13 - 1, if97.B23Temperature(PMax) + 1}
 	}
 	return box{1e-9, 1.01 * PMaxHigh, TMax - 1, TMaxHigh + 1}
 }
