@@ -2,8 +2,8 @@ package fn
 
 import (
 	"errors"
-	"fmt"
 	"strconv"
+	"strings"
 )
 
 // Kinds of input error; test for them with errors.Is.
@@ -29,36 +29,43 @@ var (
 	ErrPair = errors.New("unsupported pair of inputs")
 )
 
+// ErrSolver is the kind of a *SolverError: a solve that did not converge
+// for inputs that have a state. It is our fault, never the user's, and is
+// no input error.
+var ErrSolver = errors.New("the solver did not converge")
+
 // InputError reports an input the engine cannot use: which input, its value,
 // the limit it breaks and that limit's value, all in base units.
 type InputError struct {
-	Input  string  // symbol of the input ("p", "t", "h", …), or a pair "h,s"
-	Value  float64 // the value given, in Unit
-	Limit  float64 // the value of the limit broken, in Unit; meaningful when HasLimit
-	Unit   string  // base unit of Value and Limit
-	Kind   error   // one of the Err… values above
-	Detail string  // the limit in words, e.g. "T above 1073.15 K at p > 50 MPa"
+	Input string   // symbol of the input ("p", "t", "h", "rho", …), or a pair "h,s"
+	Q     Quantity // the quantity the user gave (Density for rho); 0 for a pair
+	Value float64  // the value given, in Q's base unit
+	Limit float64  // the value of the limit broken, in Q's base unit; meaningful when HasLimit
+	Kind  error    // one of the Err… values above
+	// Detail is the limit in words, e.g. "T above {0} at p above {1}".
+	Detail Note
 
 	HasLimit bool
 	Pair     bool // the error is about the two inputs together; Value is not used
 
 	// Alternatives holds, for ErrTwoSolutions, the states that fit: their
-	// pressures (MPa) for the (T,h) and (T,s) pairs, their temperatures (K)
-	// for (p,v).
-	Alternatives []float64
+	// pressures for the (T,h) and (T,s) pairs, their temperatures for (p,v)
+	// and (p,rho).
+	Alternatives []Figure
 }
 
+// Error renders the error in base units.
 func (e *InputError) Error() string {
 	msg := e.Input
 	if !e.Pair {
 		msg += " = " + strconv.FormatFloat(e.Value, 'g', 10, 64)
-		if e.Unit != "" && e.Unit != "fraction" {
-			msg += " " + e.Unit
+		if u := e.Q.BaseUnit(); u != "" && u != "fraction" {
+			msg += " " + u
 		}
 	}
 	msg += ": " + e.Kind.Error()
-	if e.Detail != "" {
-		msg += ": " + e.Detail
+	if d := e.Detail.String(); d != "" {
+		msg += ": " + d
 	}
 	return msg
 }
@@ -66,20 +73,66 @@ func (e *InputError) Error() string {
 // Unwrap returns the error kind, so that errors.Is(err, ErrOutOfRange) works.
 func (e *InputError) Unwrap() error { return e.Kind }
 
-func notFinite(q Quantity, v float64) *InputError {
-	return &InputError{Input: q.Symbol(), Value: v, Unit: q.BaseUnit(), Kind: ErrNotFinite,
-		Detail: "give a number"}
+// SolverError reports a solve that did not converge: the inputs as given
+// and the step that failed. Its kind is ErrSolver.
+type SolverError struct {
+	Inputs [2]Input // as given to Solve, in base units
+	Step   string   // the solve that failed, e.g. "region 3 at fixed p"
 }
 
-// outOfRange reports input q = v beyond limit; detail says which limit in
-// words ("above 1073.15 K at p > 50 MPa").
-func outOfRange(q Quantity, v, limit float64, format string, args ...any) *InputError {
-	return &InputError{Input: q.Symbol(), Value: v, Limit: limit, HasLimit: true,
-		Unit: q.BaseUnit(), Kind: ErrOutOfRange, Detail: fmt.Sprintf(format, args...)}
+func (e *SolverError) Error() string {
+	var in []string
+	for _, i := range e.Inputs {
+		if i.Q.valid() {
+			in = append(in, fig(i.Q, i.Value).symbolText())
+		}
+	}
+	return ErrSolver.Error() + " (" + e.Step + ") for " + strings.Join(in, ", ") + "; please report these inputs"
+}
+
+// Unwrap returns ErrSolver.
+func (e *SolverError) Unwrap() error { return ErrSolver }
+
+// symbolText writes "h = 1599.59 kJ/kg" to full precision.
+func (f Figure) symbolText() string {
+	s := f.Q.Symbol() + " = " + strconv.FormatFloat(f.V, 'g', -1, 64)
+	if u := f.Q.BaseUnit(); u != "" && u != "fraction" {
+		s += " " + u
+	}
+	return s
+}
+
+// solverFailed is the error of a solve that did not converge at step;
+// Solve fills in the inputs.
+func solverFailed(step string) error { return &SolverError{Step: step} }
+
+func notFinite(q Quantity, v float64) *InputError {
+	return &InputError{Input: q.Symbol(), Q: q, Value: v, Kind: ErrNotFinite, Detail: note("give a number")}
+}
+
+// outOfRange reports input q = v beyond limit; text and figs say which
+// limit in words ("above {0} at p above {1}").
+func outOfRange(q Quantity, v, limit float64, text string, figs ...Figure) *InputError {
+	return &InputError{Input: q.Symbol(), Q: q, Value: v, Limit: limit, HasLimit: true,
+		Kind: ErrOutOfRange, Detail: note(text, figs...)}
 }
 
 // pairError reports a problem with the pair a, b as a whole.
-func pairError(a, b Input, kind error, format string, args ...any) *InputError {
+func pairError(a, b Input, kind error, text string, figs ...Figure) *InputError {
 	return &InputError{Input: a.Q.Symbol() + "," + b.Q.Symbol(), Pair: true,
-		Kind: kind, Detail: fmt.Sprintf(format, args...)}
+		Kind: kind, Detail: note(text, figs...)}
+}
+
+// Text writes e as Error does, with its value and the figures of its
+// detail written by format: the caller's units in place of base units.
+func (e *InputError) Text(format func(Figure) string) string {
+	msg := e.Input
+	if !e.Pair {
+		msg += " = " + format(Figure{Q: e.Q, V: e.Value})
+	}
+	msg += ": " + e.Kind.Error()
+	if d := e.Detail.Render(format); d != "" {
+		msg += ": " + d
+	}
+	return msg
 }

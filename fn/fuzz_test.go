@@ -24,11 +24,18 @@ func FuzzSolve(f *testing.F) {
 		{2, 8, 400, 0.5}, {1, 5, 1, 0.2}, {2, 5, 700, 0.003}, {2, 3, 700, 2500}, {2, 4, 300, 0.4},
 		{7, 5, 2500, 0.1}, {1, 6, 22, 322}, {1, 2, 22.064, 647.096}, {1, 2, math.NaN(), 300},
 		{1, 2, -1, 300}, {1, 8, 30, 0.5}, {3, 4, -1e300, 1e300}, {7, 5, 1e9, 1e-9}, {2, 6, 1500, 1e-3},
+		// The defects of issue 11 (TestIssue11Defects).
+		{1, 3, 33.99, 1599.59}, {1, 4, 33.99, 3.618889}, {1, 2, 22.0110537, 646.898}, {2, 6, 300, 2000},
 	} {
 		f.Add(s.qa, s.qb, s.a, s.b)
 	}
 	f.Fuzz(func(t *testing.T, qa, qb int, a, b float64) {
 		st, err := Solve(Input{Quantity(qa), a}, Input{Quantity(qb), b})
+		var ie *InputError
+		if err != nil && !errors.As(err, &ie) {
+			// A solve that did not converge (ErrSolver) is our fault.
+			t.Fatalf("Solve(%v=%g, %v=%g): %v", Quantity(qa), a, Quantity(qb), b, err)
+		}
 		if err != nil {
 			return
 		}
@@ -74,14 +81,27 @@ func TestAnswersHonourTheirInputs(t *testing.T) {
 		n = 2000
 	}
 	answered := 0
+	kinds := map[error]int{}
 	for i := 0; i < n; i++ {
 		pq := pairs[i%len(pairs)]
 		a, b := Input{pq[0], draw[pq[0]]()}, Input{pq[1], draw[pq[1]]()}
 		st, err := Solve(a, b)
 		if err != nil {
+			// No refusal counts as a pass by itself: a solve that did not
+			// converge fails the test, and a two-solution refusal must
+			// name states that exist.
 			var ie *InputError
 			if !errors.As(err, &ie) {
 				t.Errorf("Solve(%v, %v): error %v is not an *InputError", a, b, err)
+				continue
+			}
+			kinds[ie.Kind]++
+			if errors.Is(err, ErrTwoSolutions) {
+				x, y := a, b
+				if x.Q > y.Q {
+					x, y = y, x
+				}
+				checkAlternatives(t, "Solve", x, y, ie, 1e-8, nil)
 			}
 			continue
 		}
@@ -115,5 +135,10 @@ func TestAnswersHonourTheirInputs(t *testing.T) {
 			}
 		}
 	}
-	t.Logf("%d of %d random pairs had an answer", answered, n)
+	t.Logf("%d of %d random pairs had an answer; refusals by kind: %v", answered, n, kinds)
+	// Every input that reaches the engine is in range or refused as out
+	// of range: ErrNoSolution would mean a state was missed.
+	if kinds[ErrNoSolution] > 0 {
+		t.Errorf("%d random pairs refused as having no state", kinds[ErrNoSolution])
+	}
 }

@@ -34,20 +34,18 @@ func (ph Phase) String() string {
 	return phaseNames[ph]
 }
 
-// TwoPhase reports whether the phase lies on the saturation line.
-func (ph Phase) TwoPhase() bool {
-	return ph == SaturatedLiquid || ph == SaturatedMixture || ph == SaturatedVapour
-}
-
 // singlePhase classifies a single-phase state at p (MPa) and T (K) by the
-// boundaries in the package documentation.
+// boundaries in the package documentation. It is the one phase decision of
+// the package: below Tc a state is liquid where p ≥ ps(T) of R7-97(2012)
+// Eq. 30 (saturation.go), the same test by which RegionOf puts a state in
+// region 1 and region3Density picks the liquid branch.
 func singlePhase(p, T float64) Phase {
 	switch {
 	case p >= if97.Pc && T >= if97.Tc:
 		return SupercriticalFluid
 	case T >= if97.Tc:
 		return SuperheatedVapour
-	case p >= if97.Pc || p > if97.SatPressure(T):
+	case p >= if97.Pc || p >= if97.SatPressure(T):
 		return CompressedLiquid
 	default:
 		return SuperheatedVapour

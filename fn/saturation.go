@@ -1,10 +1,33 @@
 package fn
 
 import (
-	"fmt"
+	"math"
 
 	"steamcell/fn/if97"
 )
+
+// The saturation line, once for the whole package.
+//
+// IF97 defines region 4 by the saturation-pressure equation, R7-97(2012)
+// Eq. 30 (ps(T)) and its inverse Eq. 31 (Ts(p)), from 273.15 K to Tc, and
+// steamcell lets that equation alone decide saturation everywhere, above
+// 623.15 K too: a state below Tc is liquid where p ≥ ps(T) and vapour where
+// p < ps(T) (phaseAt). The saturated phases are the single-phase states on
+// either side of the line at the same (p, T): regions 1 and 2 up to
+// 623.15 K, and above it the region-3 basic equation, Eq. 28, solved for
+// the density at (p, T) on its liquid and its vapour branch
+// (region3DensityOn). So every pair sees the same line: a compressed
+// liquid approached along any path ends at the saturated liquid of the
+// same T and p, whichever pair fixed it.
+//
+// Eq. 28's own phase equilibrium (equal p and g, if97.Region3SatDensities)
+// lies within IF97's stated consistency of Eq. 30 but not on it (up to
+// 5e-4 MPa apart near 637 K), which is why it does not decide anything.
+// It is used in one place: within about 2e-5 K of Tc, Eq. 30 passes
+// outside the tiny van der Waals loop of Eq. 28 (1.5e-9 MPa off at
+// 1e-5 K, with the loop 1e-9 MPa wide), so one branch has no density at
+// ps(T); there the phases take Eq. 28's equilibrium densities at T, at the
+// pressure of Eq. 30.
 
 // Saturation is a point on the saturation line: its pressure and temperature
 // with the saturated-liquid and saturated-vapour properties.
@@ -21,24 +44,39 @@ var PMinSat = if97.SatPressure(TMin)
 // which several solves compare their inputs with.
 var satAtTMin, _ = saturationAt(TMin)
 
-// saturationAt returns the saturation state at T (TMin ≤ T ≤ Tc, unchecked).
-//
-// Up to 623.15 K the liquid is from region 1 and the vapour from region 2 at
-// p = ps(T) of R7-97(2012) Eq. 30. From 623.15 K to Tc both phases lie in
-// region 3: their densities are those at which the region-3 equation gives
-// equal pressure and Gibbs energy (if97.Region3SatDensities), and the
-// pressure reported is ps(T) of Eq. 30, which agrees with the region-3
-// equilibrium pressure within the consistency IF97 states for the two.
+// saturationAt returns the saturation state at T (TMin ≤ T ≤ Tc,
+// unchecked), at p = ps(T) of Eq. 30.
 func saturationAt(T float64) (Saturation, bool) {
-	p := if97.SatPressure(T)
-	if T <= T13 {
+	return satPhases(if97.SatPressure(T), T)
+}
+
+// saturationAtP returns the saturation state at p (PMinSat ≤ p ≤ pc,
+// unchecked), at T = Ts(p) of Eq. 31.
+func saturationAtP(p float64) (Saturation, bool) {
+	return satPhases(p, if97.SatTemperature(p))
+}
+
+// satPhases returns the saturated phases at (p, T) on the line.
+func satPhases(p, T float64) (Saturation, bool) {
+	if T <= T13 || p <= P13Sat { // Eq. 31 at P13Sat gives T13 only to rounding
+		T = math.Min(T, T13)
 		return Saturation{P: p, T: T, Liquid: if97.Region1(p, T), Vapour: if97.Region2(p, T)}, true
 	}
-	rl, rv, ok := if97.Region3SatDensities(T)
-	if !ok {
-		return Saturation{}, false
+	if T >= if97.Tc {
+		c := if97.Region3(if97.Rhoc, if97.Tc)
+		c.P = if97.Pc
+		return Saturation{P: if97.Pc, T: if97.Tc, Liquid: c, Vapour: c}, true
 	}
-	sat := Saturation{P: p, T: T, Liquid: if97.Region3(rl, T), Vapour: if97.Region3(rv, T)}
+	l, okl := region3At(p, T, true)
+	v, okv := region3At(p, T, false)
+	if !okl || !okv {
+		rl, rv, ok := if97.Region3SatDensities(T)
+		if !ok {
+			return Saturation{}, false
+		}
+		l, v = if97.Region3(rl, T), if97.Region3(rv, T)
+	}
+	sat := Saturation{P: p, T: T, Liquid: l, Vapour: v}
 	sat.Liquid.P, sat.Vapour.P = p, p
 	return sat, true
 }
@@ -50,16 +88,15 @@ func SaturationAtT(T float64) (Saturation, error) {
 		return Saturation{}, err
 	}
 	if T < TMin {
-		return Saturation{}, outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+		return Saturation{}, outOfRange(Temperature, T, TMin, "T below {0}", fig(Temperature, TMin))
 	}
 	if T > if97.Tc {
-		return Saturation{}, &InputError{Input: "t", Value: T, Limit: if97.Tc, HasLimit: true, Unit: "K",
-			Kind: ErrAboveCritical, Detail: fmt.Sprintf("T above the critical temperature %g K", if97.Tc)}
+		return Saturation{}, &InputError{Input: "t", Q: Temperature, Value: T, Limit: if97.Tc, HasLimit: true,
+			Kind: ErrAboveCritical, Detail: note("T above the critical temperature {0}", fig(Temperature, if97.Tc))}
 	}
 	sat, ok := saturationAt(T)
 	if !ok {
-		return Saturation{}, &InputError{Input: "t", Value: T, Unit: "K", Kind: ErrNoSolution,
-			Detail: "the region-3 saturation densities did not converge"}
+		return Saturation{}, &SolverError{Inputs: [2]Input{{Temperature, T}}, Step: "saturated densities in region 3"}
 	}
 	return sat, nil
 }
@@ -73,20 +110,22 @@ func SaturationAtP(p float64) (Saturation, error) {
 	if err := checkSatP(p); err != nil {
 		return Saturation{}, err
 	}
-	sat, err := SaturationAtT(if97.SatTemperature(p))
-	sat.P = p
-	sat.Liquid.P, sat.Vapour.P = p, p
-	return sat, err
+	sat, ok := saturationAtP(p)
+	if !ok {
+		return Saturation{}, &SolverError{Inputs: [2]Input{{Pressure, p}}, Step: "saturated densities in region 3"}
+	}
+	return sat, nil
 }
 
 // checkSatP checks that a saturation state exists at p.
 func checkSatP(p float64) error {
 	if p < PMinSat {
-		return outOfRange(Pressure, p, PMinSat, "p below %g MPa, the saturation pressure at %g K, the lowest of IF97", PMinSat, TMin)
+		return outOfRange(Pressure, p, PMinSat, "p below {0}, the saturation pressure at {1}, the lowest of IF97",
+			fig(Pressure, PMinSat), fig(Temperature, TMin))
 	}
 	if p > if97.Pc {
-		return &InputError{Input: "p", Value: p, Limit: if97.Pc, HasLimit: true, Unit: "MPa",
-			Kind: ErrAboveCritical, Detail: fmt.Sprintf("p above the critical pressure %g MPa", if97.Pc)}
+		return &InputError{Input: "p", Q: Pressure, Value: p, Limit: if97.Pc, HasLimit: true,
+			Kind: ErrAboveCritical, Detail: note("p above the critical pressure {0}", fig(Pressure, if97.Pc))}
 	}
 	return nil
 }
@@ -110,4 +149,18 @@ func mixture(sat Saturation, x float64) State {
 	s.P, s.T = sat.P, sat.T
 	s.Warnings = warnings(&s)
 	return s
+}
+
+// onLine returns the state on the saturation line sat whose q is val, if
+// val lies between the saturated values ql and qv (q rising from liquid
+// to vapour) or within the solve's residual tolerance (resTol) outside
+// them: such a value cannot be told from the saturated phase's own, and
+// is that phase (x = 0 or 1).
+func onLine(sat Saturation, q Quantity, val float64) (State, bool) {
+	ql, qv := value(q, &sat.Liquid), value(q, &sat.Vapour)
+	tol := resTol(q, val)
+	if val < ql-tol || val > qv+tol {
+		return State{}, false
+	}
+	return mixture(sat, quality(ql, qv, val)), true
 }

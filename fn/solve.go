@@ -1,7 +1,7 @@
 package fn
 
 import (
-	"fmt"
+	"errors"
 	"math"
 
 	"steamcell/fn/if97"
@@ -15,59 +15,85 @@ import (
 // (R7-97(2012) T(p,h), T(p,s); SR2-01 and SR4-04 p(h,s); SR3-03 T and v from
 // (p,h) and (p,s); SR5-05 v(p,T)), and Newton steps on the forward
 // equations polish the answer until it agrees with them to rounding. Where
-// none exists, a bracketed Newton solve finds it. Errors are *InputError.
+// none exists, a bracketed solve finds it (pairs.go). Input errors are
+// *InputError, reported on the input as given (ρ as ρ); a solve that did
+// not converge is a *SolverError, whose kind is ErrSolver.
 func Solve(a, b Input) (State, error) {
+	st, err := solve(a, b)
+	if err != nil {
+		var se *SolverError
+		if errors.As(err, &se) {
+			se.Inputs = [2]Input{a, b}
+		}
+	}
+	return st, err
+}
+
+func solve(a, b Input) (State, error) {
 	if err := checkFinite(a, b); err != nil {
 		return State{}, err
 	}
-	if !a.Q.valid() || !b.Q.valid() || a.Q == b.Q ||
-		(a.Q == Volume || a.Q == Density) && (b.Q == Volume || b.Q == Density) {
+	isVolume := func(q Quantity) bool { return q == Volume || q == Density }
+	if !a.Q.valid() || !b.Q.valid() || a.Q == b.Q || isVolume(a.Q) && isVolume(b.Q) {
 		return State{}, pairError(a, b, ErrPair, "give two different properties, e.g. p and t, p and h, h and s")
 	}
-	// ρ is accepted in place of v.
+	g := given{a, b}
+	for _, in := range g {
+		if isVolume(in.Q) {
+			if err := checkVolume(in); err != nil {
+				return State{}, err
+			}
+		}
+	}
+	// ρ is solved as v; g keeps it as given, for the errors.
 	for _, in := range []*Input{&a, &b} {
 		if in.Q == Density {
-			if in.Value <= 0 {
-				return State{}, outOfRange(Density, in.Value, 0, "rho must be above 0 kg/m³")
-			}
 			*in = Input{Volume, 1 / in.Value}
 		}
 	}
 	if a.Q > b.Q { // canonical order: the order of the Quantity constants
 		a, b = b, a
+		g[0], g[1] = g[1], g[0]
 	}
-	switch a.Q {
+	switch [2]Quantity{a.Q, b.Q} {
+	case [2]Quantity{Pressure, Temperature}:
+		return FromPT(a.Value, b.Value)
+	case [2]Quantity{Pressure, Quality}:
+		return FromPX(a.Value, b.Value)
+	case [2]Quantity{Temperature, Quality}:
+		return FromTX(a.Value, b.Value)
+	}
+	ps, ok := pairTable[[2]Quantity{a.Q, b.Q}]
+	if !ok {
+		return State{}, pairError(a, b, ErrPair,
+			"supported pairs: p,t  p,h  p,s  h,s  p,x  t,x  p,v  t,v  t,h  t,s  u,v (rho in place of v)")
+	}
+	if err := checkOne(a); err != nil {
+		return State{}, err
+	}
+	return ps.solvePair(a.Value, b.Value, g)
+}
+
+// checkOne checks the range of an input that bounds the range by itself:
+// p and T.
+func checkOne(in Input) error {
+	switch in.Q {
 	case Pressure:
-		switch b.Q {
-		case Temperature:
-			return FromPT(a.Value, b.Value)
-		case Enthalpy, Entropy:
-			return fromPQ(a.Value, b)
-		case Volume:
-			return fromPV(a.Value, b.Value)
-		case Quality:
-			return FromPX(a.Value, b.Value)
-		}
+		return checkP(in.Value)
 	case Temperature:
-		switch b.Q {
-		case Quality:
-			return FromTX(a.Value, b.Value)
-		case Volume:
-			return fromTV(a.Value, b.Value)
-		case Enthalpy, Entropy:
-			return fromTQ(a.Value, b)
-		}
-	case Enthalpy:
-		if b.Q == Entropy {
-			return FromHS(a.Value, b.Value)
-		}
-	case Volume:
-		if b.Q == InternalEnergy {
-			return FromUV(b.Value, a.Value)
+		return checkT(in.Value)
+	}
+	return nil
+}
+
+// checkFinite refuses NaN and infinite inputs.
+func checkFinite(in ...Input) error {
+	for _, i := range in {
+		if math.IsNaN(i.Value) || math.IsInf(i.Value, 0) {
+			return notFinite(i.Q, i.Value)
 		}
 	}
-	return State{}, pairError(a, b, ErrPair,
-		"supported pairs: p,t  p,h  p,s  h,s  p,x  t,x  p,v  t,v  t,h  t,s  u,v (rho in place of v)")
+	return nil
 }
 
 // checkX checks a quality.
@@ -77,7 +103,7 @@ func checkX(x float64) error {
 		if x > 1 {
 			lim = 1
 		}
-		return outOfRange(Quality, x, lim, "x must lie between 0 and 1 (a fraction, not a percentage)")
+		return outOfRange(Quality, x, lim, "x must lie between {0} and {1} (a fraction, not a percentage)", fig(Quality, 0), fig(Quality, 1))
 	}
 	return nil
 }
@@ -92,8 +118,8 @@ func FromPX(p, x float64) (State, error) {
 		return State{}, err
 	}
 	if p >= if97.Pc {
-		return State{}, &InputError{Input: "p", Value: p, Limit: if97.Pc, HasLimit: true, Unit: "MPa",
-			Kind: ErrAboveCritical, Detail: fmt.Sprintf("x has no meaning at or above the critical pressure %g MPa", if97.Pc)}
+		return State{}, &InputError{Input: "p", Q: Pressure, Value: p, Limit: if97.Pc, HasLimit: true,
+			Kind: ErrAboveCritical, Detail: note("x has no meaning at or above the critical pressure {0}", fig(Pressure, if97.Pc))}
 	}
 	sat, err := SaturationAtP(p)
 	if err != nil {
@@ -112,8 +138,8 @@ func FromTX(T, x float64) (State, error) {
 		return State{}, err
 	}
 	if T >= if97.Tc {
-		return State{}, &InputError{Input: "t", Value: T, Limit: if97.Tc, HasLimit: true, Unit: "K",
-			Kind: ErrAboveCritical, Detail: fmt.Sprintf("x has no meaning at or above the critical temperature %g K", if97.Tc)}
+		return State{}, &InputError{Input: "t", Q: Temperature, Value: T, Limit: if97.Tc, HasLimit: true,
+			Kind: ErrAboveCritical, Detail: note("x has no meaning at or above the critical temperature {0}", fig(Temperature, if97.Tc))}
 	}
 	sat, err := SaturationAtT(T)
 	if err != nil {
@@ -127,25 +153,3 @@ func FromPH(p, h float64) (State, error) { return Solve(Input{Pressure, p}, Inpu
 
 // FromPS returns the state at pressure p (MPa) and specific entropy s (kJ/(kg·K)).
 func FromPS(p, s float64) (State, error) { return Solve(Input{Pressure, p}, Input{Entropy, s}) }
-
-// FromPV returns the state at pressure p (MPa) and specific volume v (m³/kg).
-func FromPV(p, v float64) (State, error) { return Solve(Input{Pressure, p}, Input{Volume, v}) }
-
-// FromTV returns the state at temperature T (K) and specific volume v (m³/kg).
-func FromTV(T, v float64) (State, error) { return Solve(Input{Temperature, T}, Input{Volume, v}) }
-
-// FromTH returns the state at temperature T (K) and specific enthalpy h (kJ/kg).
-func FromTH(T, h float64) (State, error) { return Solve(Input{Temperature, T}, Input{Enthalpy, h}) }
-
-// FromTS returns the state at temperature T (K) and specific entropy s (kJ/(kg·K)).
-func FromTS(T, s float64) (State, error) { return Solve(Input{Temperature, T}, Input{Entropy, s}) }
-
-// quantityAt returns quantity q of the single-phase state at (p, T), which
-// must be inside the range of validity.
-func quantityAt(q Quantity, p, T float64) float64 {
-	pr, err := evalPT(if97.RegionOf(p, T), p, T)
-	if err != nil {
-		return math.NaN()
-	}
-	return value(q, &pr)
-}

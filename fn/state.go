@@ -1,7 +1,6 @@
 package fn
 
 import (
-	"fmt"
 	"math"
 
 	"steamcell/fn/if97"
@@ -40,8 +39,9 @@ type State struct {
 	Liquid, Vapour if97.Props
 
 	// Warnings are short sentences for the user: nearness to saturation or
-	// to the critical point, a choice between two solutions.
-	Warnings []string
+	// to the critical point, a choice between two solutions. Their numbers
+	// are Figures, for the caller to render in the user's units.
+	Warnings []Note
 }
 
 // Defined reports whether the single-phase derivative properties (Cp, Cv,
@@ -49,30 +49,20 @@ type State struct {
 // mixture.
 func (s *State) Defined() bool { return s.Phase != SaturatedMixture }
 
-// checkFinite refuses NaN and infinite inputs.
-func checkFinite(in ...Input) error {
-	for _, i := range in {
-		if math.IsNaN(i.Value) || math.IsInf(i.Value, 0) {
-			return notFinite(i.Q, i.Value)
-		}
-	}
-	return nil
-}
-
 // checkPT checks (p, T) against the range of validity and returns the region
 // of a single-phase state there (1, 2, 3 or 5). The errors name p or T.
 func checkPT(p, T float64) (int, error) {
 	switch {
 	case p <= 0:
-		return 0, outOfRange(Pressure, p, 0, "p must be above 0 MPa (absolute)")
+		return 0, outOfRange(Pressure, p, 0, "p must be above {0} (absolute)", fig(Pressure, 0))
 	case T < TMin:
-		return 0, outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+		return 0, outOfRange(Temperature, T, TMin, "T below {0}", fig(Temperature, TMin))
 	case T > TMaxHigh:
-		return 0, outOfRange(Temperature, T, TMaxHigh, "T above %g K", TMaxHigh)
+		return 0, outOfRange(Temperature, T, TMaxHigh, "T above {0}", fig(Temperature, TMaxHigh))
 	case p > PMax:
-		return 0, outOfRange(Pressure, p, PMax, "p above %g MPa", PMax)
+		return 0, outOfRange(Pressure, p, PMax, "p above {0}", fig(Pressure, PMax))
 	case T > TMax && p > PMaxHigh:
-		return 0, outOfRange(Pressure, p, PMaxHigh, "p above %g MPa at T above %g K", PMaxHigh, TMax)
+		return 0, outOfRange(Pressure, p, PMaxHigh, "p above {0} at T above {1}", fig(Pressure, PMaxHigh), fig(Temperature, TMax))
 	}
 	return if97.RegionOf(p, T), nil
 }
@@ -93,7 +83,7 @@ func FromPT(p, T float64) (State, error) {
 	}
 	if T <= if97.Tc && p == if97.SatPressure(T) {
 		return State{}, &InputError{Input: "p,t", Pair: true, Kind: ErrOnSaturation,
-			Detail: fmt.Sprintf("at T = %g K the saturation pressure is %g MPa; give x, h or s as the second input", T, p)}
+			Detail: note("at T = {0} the saturation pressure is {1}; give x, h or s as the second input", fig(Temperature, T), fig(Pressure, p))}
 	}
 	pr, err := evalPT(r, p, T)
 	if err != nil {
@@ -112,35 +102,45 @@ func evalPT(r int, p, T float64) (if97.Props, error) {
 	case 5:
 		return if97.Region5(p, T), nil
 	}
-	rho, ok := region3Density(p, T)
+	pr, ok := region3PT(p, T)
 	if !ok {
-		return if97.Props{}, &InputError{Input: "p,t", Pair: true, Kind: ErrNoSolution,
-			Detail: fmt.Sprintf("the region-3 density at p = %g MPa, T = %g K did not converge", p, T)}
+		return if97.Props{}, solverFailed("region-3 density at (p, T)")
 	}
-	pr := if97.Region3(rho, T)
 	pr.P = p // equal to rounding after the Newton polish; keep the input exactly
 	return pr, nil
 }
 
 // singleState wraps the properties of a single-phase state with its phase,
-// region and warnings.
+// region and warnings. The phase is that of the region's equation where
+// the region decides it (region 1 is liquid, regions 2 and 5 vapour or
+// supercritical fluid), so that a state within rounding of the saturation
+// line keeps the phase of the equation it was solved on; region 3 takes
+// singlePhase, which matches its branch (stable3).
 func singleState(r int, pr if97.Props) State {
-	s := State{Props: pr, Region: r, Phase: singlePhase(pr.P, pr.T)}
+	ph := singlePhase(pr.P, pr.T)
+	switch {
+	case r == 1:
+		ph = CompressedLiquid
+	case (r == 2 || r == 5) && ph == CompressedLiquid:
+		ph = SuperheatedVapour
+	}
+	s := State{Props: pr, Region: r, Phase: ph}
 	s.Warnings = warnings(&s)
 	return s
 }
 
 // warnings returns the cautions that apply to s.
-func warnings(s *State) []string {
-	var w []string
+func warnings(s *State) []Note {
+	var w []Note
 	if !s.HasX && s.P < if97.Pc {
 		ts := if97.SatTemperature(s.P)
 		if d := math.Abs(s.T - ts); d < nearSatK {
-			w = append(w, fmt.Sprintf("within %g K of saturation (Ts = %.3f K at this pressure): a small error in p or T puts the point in the other phase", nearSatK, ts))
+			w = append(w, note("within {0} of saturation (Ts = {1} at this pressure): a small error in p or T puts the point in the other phase",
+				Figure{Q: Temperature, V: nearSatK, Diff: true}, fig(Temperature, ts)))
 		}
 	}
 	if math.Abs(s.T-if97.Tc) < nearCritK && math.Abs(s.P-if97.Pc) < nearCritP {
-		w = append(w, "near the critical point, where IF97 is least accurate and properties change steeply")
+		w = append(w, note("near the critical point, where IF97 is least accurate and properties change steeply"))
 	}
 	return w
 }
@@ -160,20 +160,20 @@ func FromPTMetastable(p, T float64) (State, error) {
 	}
 	switch {
 	case p <= 0:
-		return State{}, outOfRange(Pressure, p, 0, "p must be above 0 MPa (absolute)")
+		return State{}, outOfRange(Pressure, p, 0, "p must be above {0} (absolute)", fig(Pressure, 0))
 	case p > 10:
-		return State{}, outOfRange(Pressure, p, 10, "the metastable-vapour equation holds up to 10 MPa")
+		return State{}, outOfRange(Pressure, p, 10, "the metastable-vapour equation holds up to {0}", fig(Pressure, 10))
 	case T < TMin:
-		return State{}, outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+		return State{}, outOfRange(Temperature, T, TMin, "T below {0}", fig(Temperature, TMin))
 	}
 	if p >= PMinSat {
 		if ts := if97.SatTemperature(p); T > ts {
-			return State{}, outOfRange(Temperature, T, ts, "T above the saturation temperature %.6g K: the vapour is not metastable; use FromPT", ts)
+			return State{}, outOfRange(Temperature, T, ts, "T above the saturation temperature {0}: the vapour is not metastable; use FromPT", fig(Temperature, ts))
 		}
 	} else {
-		return State{}, outOfRange(Pressure, p, PMinSat, "below %g MPa no vapour is metastable above 273.15 K", PMinSat)
+		return State{}, outOfRange(Pressure, p, PMinSat, "below {0} no vapour is metastable above {1}", fig(Pressure, PMinSat), fig(Temperature, TMin))
 	}
 	s := State{Props: if97.Region2Metastable(p, T), Region: 2, Phase: MetastableVapour}
-	s.Warnings = []string{"metastable (supercooled) vapour from the IF97 metastable-vapour equation, valid down to about 5 % equilibrium moisture"}
+	s.Warnings = []Note{note("metastable (supercooled) vapour from the IF97 metastable-vapour equation, valid down to about 5 % equilibrium moisture")}
 	return s, nil
 }

@@ -208,16 +208,12 @@ func (s *sheetRun) explain(err error, p *pairSpec, cells, texts [2]string) (stat
 		return c + ": " + ue.Error(), c, fmt.Sprintf("%s: %s. %s", c, ue.Error(), inputs)
 	case errors.As(err, &fe):
 		status = fnKind(fe.Kind)
-		if fe.Detail != "" {
-			status += ": " + fe.Detail
+		if d := fe.Detail.String(); d != "" {
+			status += ": " + d
 		}
 		if !fe.Pair {
 			for k := range 2 {
-				sym := p.in[k].sym
-				if sym == "rho" {
-					sym = "v" // the engine reads rho as v
-				}
-				if sym == fe.Input {
+				if p.in[k].sym == fe.Input {
 					cell = cells[k]
 				}
 			}

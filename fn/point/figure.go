@@ -9,16 +9,6 @@ import (
 	"steamcell/fn/units"
 )
 
-// figure is a value the engine puts in a message or a warning: a value of
-// quantity Q in base units, or a difference of it (Diff: no offset, no
-// atmosphere). Its fields are those of fn.Figure, which replaces it when
-// the engine's notes arrive (type figure = fn.Figure).
-type figure struct {
-	Q    fn.Quantity
-	V    float64
-	Diff bool
-}
-
 // withTyped returns o with the units the inputs were typed in, so that
 // figures of those quantities are written in them: Tsat in °C when T came
 // in °C, p in bar when p came in bar.
@@ -73,35 +63,14 @@ func (o Options) figureText(q fn.Quantity, v float64, diff bool) string {
 	return s + " " + label
 }
 
-// renderNote writes a note of the engine: text with placeholders {0},
-// {1}, … for its figures, each written by figureText. A placeholder
-// without its figure is left as it stands.
-func (o Options) renderNote(text string, figs []figure) string {
-	if !strings.Contains(text, "{") {
-		return text
+// note writes a note of the engine (text with placeholders {0}, {1}, …
+// for its figures), each figure written by figureText: in the units the
+// inputs were typed in, else in the unit set's.
+func (o Options) note(n fn.Note) string {
+	if len(n.Figures) == 0 {
+		return n.Text
 	}
-	var b strings.Builder
-	for {
-		i := strings.IndexByte(text, '{')
-		if i < 0 {
-			break
-		}
-		j := strings.IndexByte(text[i:], '}')
-		if j < 0 {
-			break
-		}
-		n, err := strconv.Atoi(text[i+1 : i+j])
-		b.WriteString(text[:i])
-		if err != nil || n < 0 || n >= len(figs) {
-			b.WriteString(text[i : i+j+1])
-		} else {
-			f := figs[n]
-			b.WriteString(o.figureText(f.Q, f.V, f.Diff))
-		}
-		text = text[i+j+1:]
-	}
-	b.WriteString(text)
-	return b.String()
+	return n.Render(func(f fn.Figure) string { return o.figureText(f.Q, f.V, f.Diff) })
 }
 
 // formatFigure writes v to six significant digits, without trailing zeros

@@ -67,7 +67,7 @@ func TestFigureText(t *testing.T) {
 func TestRenderNote(t *testing.T) {
 	o := Options{}.withTyped([2]fn.Input{{Q: fn.Pressure}, {Q: fn.Temperature}},
 		[2]units.Unit{unit(t, "bar", units.Pressure), unit(t, "°C", units.Temperature)})
-	figs := []figure{{Q: fn.Temperature, V: 0.3, Diff: true}, {Q: fn.Temperature, V: 453.035632}, {Q: fn.Pressure, V: 1}}
+	figs := []fn.Figure{{Q: fn.Temperature, V: 0.3, Diff: true}, {Q: fn.Temperature, V: 453.035632}, {Q: fn.Pressure, V: 1}}
 	for text, want := range map[string]string{
 		"within {0} of saturation (Ts = {1} at {2})": "within 0.3 K of saturation (Ts = 179.886 °C at 10 bar)",
 		"no figures":     "no figures",
@@ -76,7 +76,7 @@ func TestRenderNote(t *testing.T) {
 		"ends with {0}":  "ends with 0.3 K",
 		"{0} starts it}": "0.3 K starts it}",
 	} {
-		if got := o.renderNote(text, figs); got != want {
+		if got := o.note(fn.Note{Text: text, Figures: figs}); got != want {
 			t.Errorf("renderNote(%q) = %q, want %q", text, got, want)
 		}
 	}

@@ -62,7 +62,11 @@ func NewPlan(syms []string, opt Options) *Plan {
 // (when the plan has any). Properties with no value for this state are
 // fields with Defined false, unless the plan gives the defaults, which
 // leave them out. a keeps no reference to st.
-func (pl *Plan) Fill(st *fn.State, a *Answer) {
+func (pl *Plan) Fill(st *fn.State, a *Answer) { pl.fill(st, a, pl.opt) }
+
+// fill is Fill with the warnings' figures written in the units of notes
+// (the plan's, with the units the inputs were typed in).
+func (pl *Plan) fill(st *fn.State, a *Answer, notes Options) {
 	// Reset the flags of what view computes on first use, not the whole
 	// of it: a value is read only where its flag says it is set.
 	w := &a.w
@@ -71,7 +75,10 @@ func (pl *Plan) Fill(st *fn.State, a *Answer) {
 	w.trWarn, w.sigmaWarn = w.trWarn[:0], ""
 	a.Phase, a.Region, a.Set = st.Phase.String(), st.Region, pl.set
 	a.Fields = a.Fields[:0]
-	a.Warnings = append(a.Warnings[:0], st.Warnings...)
+	a.Warnings = a.Warnings[:0]
+	for _, n := range st.Warnings {
+		a.Warnings = append(a.Warnings, notes.note(n))
+	}
 	a.plan, a.mask = pl, [len(a.mask)]uint64{}
 	for i := range pl.cols {
 		c := &pl.cols[i]
@@ -101,12 +108,12 @@ func (pl *Plan) Fill(st *fn.State, a *Answer) {
 // bulk request or of a workbook writer. The state is kept in a (State), so
 // that a row costs no allocation. On an error a is left as it was.
 func (pl *Plan) Row(given []Given, a *Answer) ([2]fn.Input, error) {
-	st, in, err := Solve(given, pl.opt)
+	st, in, us, err := solve(given, pl.opt)
 	if err != nil {
 		return in, err
 	}
 	a.st = st
-	pl.Fill(&a.st, a)
+	pl.fill(&a.st, a, pl.opt.withTyped(in, us))
 	return in, nil
 }
 

@@ -27,7 +27,9 @@ func refRender(st *fn.State, syms []string, opt Options) refAnswer {
 		syms = defaultSymbols
 	}
 	a := refAnswer{Phase: st.Phase.String(), Region: st.Region, Set: opt.Set.Name()}
-	a.Warnings = append(a.Warnings, st.Warnings...)
+	for _, n := range st.Warnings {
+		a.Warnings = append(a.Warnings, opt.note(n))
+	}
 	for _, sym := range syms {
 		p, _ := Lookup(sym)
 		if p.get == nil {

@@ -140,33 +140,65 @@ func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 	return out, us, nil
 }
 
-// Solve reads two given inputs and solves the state.
+// Solve reads two given inputs and solves the state. An error of the
+// engine about an input is told in the units the inputs were typed in.
 func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
+	st, in, _, err := solve(given, opt)
+	return st, in, err
+}
+
+// Typed returns opt with the units the given inputs are typed in, so that
+// an answer's warnings (Render) give their figures in them: Ts in °C when
+// T came in °C, p in bar when p came in bar. Inputs that cannot be read
+// leave opt as it is.
+func (opt Options) Typed(given []Given) Options {
 	in, us, err := read(given, opt)
 	if err != nil {
-		return fn.State{}, in, err
+		return opt
+	}
+	return opt.withTyped(in, us)
+}
+
+// solve is Solve, also giving the units the inputs were typed in.
+func solve(given []Given, opt Options) (fn.State, [2]fn.Input, [2]units.Unit, error) {
+	in, us, err := read(given, opt)
+	if err != nil {
+		return fn.State{}, in, us, err
 	}
 	st, err := fn.Solve(in[0], in[1])
 	if err == nil {
-		return st, in, nil // before errors.As, whose target costs an allocation
+		return st, in, us, nil // before errors.As, whose target costs an allocation
 	}
 	var ie *fn.InputError
-	if errors.As(err, &ie) && !ie.Pair {
-		// The engine speaks in base units; echo the input as the user gave
-		// it, and the limit in the user's unit, so the message reads in
-		// their units too.
+	if errors.As(err, &ie) {
+		err = userError(ie, given, in, opt.withTyped(in, us))
+	}
+	return st, in, us, err
+}
+
+// inUserUnits is an input error of the engine told in the user's units; it
+// unwraps to the engine's error and so to its kind.
+type inUserUnits struct {
+	msg string
+	err *fn.InputError
+}
+
+func (e *inUserUnits) Error() string { return e.msg }
+func (e *inUserUnits) Unwrap() error { return e.err }
+
+// userError tells ie in the units of fo (the point's, with the units its
+// inputs were typed in), and echoes the input as the user gave it.
+func userError(ie *fn.InputError, given []Given, in [2]fn.Input, fo Options) error {
+	msg := ie.Text(func(f fn.Figure) string { return fo.figureText(f.Q, f.V, f.Diff) })
+	if !ie.Pair {
 		for i, g := range given {
-			if in[i].Q.Symbol() == ie.Input || in[i].Q == fn.Density && ie.Input == "rho" {
-				echo := "given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit)
-				if u := us[i]; ie.HasLimit && u.Name != ie.Unit && !(u.Name == "" && ie.Unit == "fraction") {
-					echo += "; the limit is " + opt.withTyped(in, us).figureText(in[i].Q, ie.Limit, false)
-				}
-				err = fmt.Errorf("%w (%s)", err, echo)
+			if in[i].Q == ie.Q {
+				msg += " (given as " + g.Name + "=" + strings.TrimSpace(g.Text+" "+g.Unit) + ")"
 				break
 			}
 		}
 	}
-	return st, in, err
+	return &inUserUnits{msg: msg, err: ie}
 }
 
 // quote quotes a name for a message, keeping invalid UTF-8 and control

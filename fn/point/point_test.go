@@ -55,8 +55,8 @@ func TestReadErrors(t *testing.T) {
 	}
 }
 
-// An out-of-range input is echoed as given, with the limit in the unit it
-// was given in. Limits from IAPWS R7-97(2012) section 4 (p ≤ 100 MPa,
+// An out-of-range input is echoed as given, and the whole message, the
+// limit too, is in the unit it was given in. Limits from IAPWS R7-97(2012) section 4 (p ≤ 100 MPa,
 // T ≤ 2273.15 K); units by NIST SP 811 (2008) B.8 (1 bar = 0.1 MPa,
 // K = °C + 273.15 exactly).
 func TestOutOfRangeEchoesTheUsersUnit(t *testing.T) {
@@ -64,11 +64,11 @@ func TestOutOfRangeEchoesTheUsersUnit(t *testing.T) {
 		given []Given
 		want  string
 	}{
-		{[]Given{{Name: "p", Text: "1200 bar"}, {Name: "t", Text: "300 C"}}, "(given as p=1200 bar; the limit is 1000 bar)"},
-		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "3300", Unit: "°C"}}, "(given as t=3300 °C; the limit is 2000 °C)"},
+		{[]Given{{Name: "p", Text: "1200 bar"}, {Name: "t", Text: "300 C"}}, "p = 1200 bar: outside the range of validity: p above 1000 bar (given as p=1200 bar)"},
+		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "t", Text: "3300", Unit: "°C"}}, "t = 3300 °C: outside the range of validity: T above 2000 °C (given as t=3300 °C)"},
 		{[]Given{{Name: "p", Text: "120 MPa"}, {Name: "t", Text: "600 K"}}, "(given as p=120 MPa)"},
 		// 100 MPa less the standard atmosphere (0.101325 MPa) is 998.98675 bar.
-		{[]Given{{Name: "p", Text: "1100 barg"}, {Name: "t", Text: "300 C"}}, "(given as p=1100 barg; the limit is 998.987 barg)"},
+		{[]Given{{Name: "p", Text: "1100 barg"}, {Name: "t", Text: "300 C"}}, "p = 1100 barg: outside the range of validity: p above 998.987 barg (given as p=1100 barg)"},
 	} {
 		_, _, err := Solve(tc.given, Options{})
 		if !errors.Is(err, fn.ErrOutOfRange) || !strings.HasSuffix(err.Error(), tc.want) {

@@ -1,8 +1,8 @@
 package fn
 
 import (
-	"fmt"
 	"math"
+	"strconv"
 	"strings"
 
 	"steamcell/fn/if97"
@@ -12,17 +12,9 @@ import (
 func checkT(T float64) error {
 	switch {
 	case T < TMin:
-		return outOfRange(Temperature, T, TMin, "T below %g K", TMin)
+		return outOfRange(Temperature, T, TMin, "T below {0}", fig(Temperature, TMin))
 	case T > TMaxHigh:
-		return outOfRange(Temperature, T, TMaxHigh, "T above %g K", TMaxHigh)
-	}
-	return nil
-}
-
-// checkV checks a specific volume given as an input.
-func checkV(v float64) error {
-	if v <= 0 {
-		return outOfRange(Volume, v, 0, "v must be above 0 m³/kg")
+		return outOfRange(Temperature, T, TMaxHigh, "T above {0}", fig(Temperature, TMaxHigh))
 	}
 	return nil
 }
@@ -35,35 +27,31 @@ func pMaxAtT(T float64) float64 {
 	return PMax
 }
 
-// fromTV returns the state at temperature T and specific volume v. Along an
-// isotherm v falls as p rises ((∂v/∂p)_T < 0 for every stable state), so the
-// answer is unique.
-func fromTV(T, v float64) (State, error) {
+// fallbackTV solves (T, v) along the isotherm. Along an isotherm v falls
+// as p rises ((∂v/∂p)_T < 0 for every stable state), so the answer is
+// unique: the stretch whose end values hold v gets a bracketed solve in
+// ln p; region 3, where ρ and T are the equation's own variables, needs
+// none.
+func fallbackTV(T, v float64, g given) (State, error) {
+	gv := g[1]
 	if err := checkT(T); err != nil {
 		return State{}, err
-	}
-	if err := checkV(v); err != nil {
-		return State{}, err
-	}
-	if st, ok := fastTV(T, v); ok {
-		return st, nil
 	}
 	pTop := pMaxAtT(T)
 	tooDense := func() error {
 		vmin := quantityAt(Volume, pTop, T)
-		return outOfRange(Volume, v, vmin, "v below %.8g m³/kg, its value at %g MPa and T = %g K", vmin, pTop, T)
+		return volumeOutOfRange(gv, vmin, true, "its value at {1} and T = {2}", fig(Pressure, pTop), fig(Temperature, T))
 	}
-	denseOK := func() bool { return v >= quantityAt(Volume, pTop, T) }
+	denseOK := func() bool { return v >= quantityAt(Volume, pTop, T)-edgeTol(Volume, v) }
 	if T < if97.Tc {
 		sat, ok := saturationAt(T)
 		if !ok {
-			return State{}, noConvergence("t,v")
+			return State{}, solverFailed("saturated densities in region 3")
 		}
-		vl, vv := sat.Liquid.V, sat.Vapour.V
-		switch {
-		case v >= vl && v <= vv:
-			return mixture(sat, quality(vl, vv, v)), nil
-		case T <= T13 && v < vl:
+		switch st, ok := onLine(sat, Volume, v); {
+		case ok:
+			return st, nil
+		case T <= T13 && v < sat.Liquid.V:
 			if !denseOK() {
 				return State{}, tooDense()
 			}
@@ -72,16 +60,13 @@ func fromTV(T, v float64) (State, error) {
 			return solvedAtT(2, T, Volume, v, 0, sat.P)
 		}
 	}
+	if !denseOK() {
+		return State{}, tooDense()
+	}
 	switch {
 	case T > TMax:
-		if !denseOK() {
-			return State{}, tooDense()
-		}
 		return solvedAtT(5, T, Volume, v, 0, pTop)
 	case T > if97.B23Temperature(PMax):
-		if !denseOK() {
-			return State{}, tooDense()
-		}
 		return solvedAtT(2, T, Volume, v, 0, pTop)
 	}
 	// 623.15 K < T ≤ 863.15 K: region 3 above the B23 line, where p follows
@@ -89,37 +74,27 @@ func fromTV(T, v float64) (State, error) {
 	pb := if97.B23Pressure(T)
 	pr := if97.Region3(1/v, T)
 	switch {
-	case pr.P > pTop || pr.P >= pb && !region3Dense(&pr):
+	case pr.P > pTop*(1+1e-12) || pr.P >= pb && !region3Dense(&pr): // 1e-12: p at the top, to the rounding of v
 		return State{}, tooDense()
 	case pr.P >= pb:
+		if !stable3(&pr) {
+			// Between the saturated densities: the mixture, placed above
+			// (onLine); only rounding at its ends gets here.
+			return State{}, solverFailed("region-3 state at (T, v) inside the saturation dome")
+		}
 		return singleState(3, pr), nil
 	}
+	if v2 := if97.Region2(pb, T).V; v < v2 && pr.KappaT > 0 {
+		// v lies between region 2's value on the B23 line and region 3's
+		// (their equations agree there only within IF97's consistency):
+		// the boundary state, from region 3's own variables, continued
+		// just below the line.
+		s := singleState(3, pr)
+		s.Warnings = append(s.Warnings, note("this value lies between the values that the equations of IF97 regions 2 and 3 give on their boundary at {0}; region 3's equation is continued to {1}, within the consistency IF97 states for the two",
+			fig(Pressure, pb), fig(Pressure, pr.P)))
+		return s, nil
+	}
 	return solvedAtT(2, T, Volume, v, 0, pb)
-}
-
-// fastTV tries (T, v) in regions 1 and 2 up to 623.15 K by Newton steps in
-// p from a start that needs no evaluation (p just above ps(T) for liquid,
-// the ideal-gas pressure for vapour), and accepts the answer by which side
-// of ps(T) it lies on: v falls as p rises along an isotherm, so that settles
-// the phase. Anything else goes to the exact path.
-func fastTV(T, v float64) (State, bool) {
-	if T < TMin || T > T13 || !(v > 0) {
-		return State{}, false
-	}
-	ps := if97.SatPressure(T)
-	if v < 0.0025 { // liquid-like; vc = 0.0031 m³/kg
-		pr, ok := newton1n(1, Volume, v, math.Min(ps+1, PMax), T, false, 12)
-		if ok && pr.P > ps && pr.P <= PMax {
-			return singleState(1, pr), true
-		}
-		return State{}, false
-	}
-	p0 := math.Min(if97.R*T/(mpaM3*v), ps)
-	pr, ok := newton1n(2, Volume, v, p0, T, false, 12)
-	if ok && pr.P < ps && pr.P > 0 {
-		return singleState(2, pr), true
-	}
-	return State{}, false
 }
 
 // solvedAtT solves q(p, T) = val for p in (pLo, pHi] in the Gibbs region r
@@ -127,16 +102,20 @@ func fastTV(T, v float64) (State, bool) {
 func solvedAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (State, error) {
 	pr, ok := solveAtT(r, T, q, val, pLo, pHi)
 	if !ok {
-		return State{}, noConvergence("t," + q.Symbol())
+		return State{}, solverFailed("bracketed solve in p at fixed T in region " + string(rune('0'+r)))
 	}
 	return singleState(r, pr), nil
 }
 
 // solveAtT solves q(p, T) = val for p in (pLo, pHi] in Gibbs region r by a
-// bracketed Newton solve in ln p; the start is the ideal-gas pressure for v
-// in the vapour regions.
+// bracketed Newton solve in ln p.
 func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, bool) {
 	lo := math.Log(math.Max(pLo, 1e-12))
+	if q == Volume && r != 1 {
+		// A vapour rarer than 1e-12 MPa: the ideal gas bounds it, its
+		// pressure is within a part in 1e9 of R T/v there.
+		lo = math.Min(lo, math.Log(if97.R*T/(mpaM3*val)/2))
+	}
 	hi := math.Log(pHi)
 	f := func(lp float64) (float64, float64) {
 		p := math.Exp(lp)
@@ -146,14 +125,7 @@ func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, 
 	}
 	x0 := (lo + hi) / 2
 	if q == Volume && r != 1 {
-		x0 = math.Log(if97.R * T / (mpaM3 * val))
-		// Newton steps from the ideal-gas pressure usually get there
-		// without the bracket's two end evaluations.
-		if p0 := math.Exp(x0); p0 > pLo && p0 < pHi {
-			if pr, ok := newton1n(r, q, val, p0, T, false, 12); ok && pr.P > pLo && pr.P <= pHi {
-				return pr, true
-			}
-		}
+		x0 = math.Max(lo, math.Min(hi, math.Log(if97.R*T/(mpaM3*val)))) // the ideal-gas pressure
 	}
 	flo, _ := f(lo)
 	fhi, _ := f(hi)
@@ -162,11 +134,6 @@ func solveAtT(r int, T float64, q Quantity, val, pLo, pHi float64) (if97.Props, 
 		return if97.Props{}, false
 	}
 	return eval(r, math.Exp(lp), T), true
-}
-
-func noConvergence(pair string) error {
-	return &InputError{Input: pair, Pair: true, Kind: ErrNoSolution,
-		Detail: "the solve did not converge; please report these inputs"}
 }
 
 // branch is a stretch of an isotherm inside one region: the native variable
@@ -205,20 +172,19 @@ func isothermBranches(T float64) ([]branch, *Saturation, bool) {
 	return append(bs, branch{3, sat.Liquid.Rho, rhoTop, false}), &sat, ok && ok1 && ok2
 }
 
-// fromTQ returns the state at temperature T and q = in.Value, q being h or
-// s. Along an isotherm neither need be monotonic (h rises with p in cold
+// searchTQ solves (T, h) or (T, s), the pairs with no candidates: along an isotherm neither need be monotonic (h rises with p in cold
 // liquid and falls in hot; s rises with p in water below about 277 K, where
 // its expansion coefficient is negative), so each stretch of the isotherm
 // is sampled and every crossing refined; two or more answers are refused
 // with ErrTwoSolutions, naming them.
-func fromTQ(T float64, in Input) (State, error) {
-	q, val := in.Q, in.Value
+func searchTQ(T, val float64, g given) (State, error) {
+	q := g[1].Q
 	if err := checkT(T); err != nil {
 		return State{}, err
 	}
 	bs, sat, ok := isothermBranches(T)
 	if !ok {
-		return State{}, noConvergence("t," + q.Symbol())
+		return State{}, solverFailed("the isotherm's stretches in region 3")
 	}
 	if q == Entropy && T >= tSFallsWithP {
 		if st, ok := fromTSFalling(T, val, bs, sat); ok {
@@ -228,14 +194,13 @@ func fromTQ(T float64, in Input) (State, error) {
 	return searchIsotherm(T, q, val, bs, sat)
 }
 
-// searchIsotherm is fromTQ's general search: every stretch of the isotherm
+// searchIsotherm is searchTQ's general search: every stretch of the isotherm
 // sampled, every crossing refined.
 func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Saturation) (State, error) {
 	var found []State
 	if sat != nil {
-		ql, qv := value(q, &sat.Liquid), value(q, &sat.Vapour)
-		if val >= ql && val <= qv {
-			found = append(found, mixture(*sat, quality(ql, qv, val)))
+		if st, ok := onLine(*sat, q, val); ok {
+			found = append(found, st)
 		}
 	}
 	qMin, qMax := math.Inf(1), math.Inf(-1)
@@ -258,20 +223,34 @@ func searchIsotherm(T float64, q Quantity, val float64, bs []branch, sat *Satura
 		}
 	}
 	qMin, qMax = qMin+val, qMax+val
+	if st, ok := atIsothermEnd(T, q, val, bs); ok && !seen(found, st.P) {
+		found = append(found, st)
+	}
+	if len(found) == 0 {
+		if st, ok := bridgeOnIsotherm(T, q, val, bs); ok {
+			return st, nil
+		}
+	}
 	switch len(found) {
 	case 0:
+		if val >= qMin && val <= qMax {
+			return State{}, solverFailed("search along the isotherm")
+		}
 		return State{}, outOfRangeAlongIsotherm(q, val, T, qMin, qMax)
 	case 1:
 		return found[0], nil
 	}
-	var alts []string
-	var ps []float64
-	for _, s := range found {
-		alts = append(alts, fmt.Sprintf("p = %.6g MPa (%s)", s.P, s.Phase))
-		ps = append(ps, s.P)
+	figs := []Figure{fig(Temperature, T), fig(q, val)}
+	var alts []Figure
+	var names []string
+	for i, s := range found {
+		p := math.Min(s.P, pMaxAtT(T)) // a root at the top of the range, to rounding
+		alts = append(alts, fig(Pressure, p))
+		figs = append(figs, fig(Pressure, p))
+		names = append(names, "p = {"+strconv.Itoa(i+2)+"} ("+s.Phase.String()+")")
 	}
-	return State{}, &InputError{Input: "t," + q.Symbol(), Pair: true, Kind: ErrTwoSolutions, Alternatives: ps,
-		Detail: fmt.Sprintf("at T = %g K, %s = %g %s fits %s; give p instead of T", T, q.Symbol(), val, q.BaseUnit(), strings.Join(alts, " and "))}
+	return State{}, &InputError{Input: "t," + q.Symbol(), Pair: true, Kind: ErrTwoSolutions, Alternatives: alts,
+		Detail: note("at T = {0}, "+q.Symbol()+" = {1} fits "+strings.Join(names, " and ")+"; give p instead of T", figs...)}
 }
 
 // isothermOf returns h or s of region r along the isotherm T.
@@ -317,10 +296,12 @@ const tSFallsWithP = 278.0
 // s, solved by Brent's method in ln p (or ρ) on the equation collapsed to
 // the isotherm and polished on the full equation (polishOnIsotherm).
 // It reports false where that does not settle the answer (s outside every
-// stretch, a failed solve), and fromTQ's general search decides.
+// stretch, a failed solve), and searchTQ's general search decides.
 func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
-	if sat != nil && val >= sat.Liquid.S && val <= sat.Vapour.S {
-		return mixture(*sat, quality(sat.Liquid.S, sat.Vapour.S, val)), true
+	if sat != nil {
+		if st, ok := onLine(*sat, Entropy, val); ok {
+			return st, true
+		}
 	}
 	for _, b := range bs {
 		it := isothermOf(b.r, T, Entropy)
@@ -355,11 +336,51 @@ func fromTSFalling(T, val float64, bs []branch, sat *Saturation) (State, bool) {
 	return State{}, false
 }
 
+// atIsothermEnd returns the state at the top end of the isotherm (its
+// highest pressure) if its q is val within the solve's tolerance: the
+// samples on the collapsed equation can miss a root that rounding puts
+// just outside the range, or right on its end.
+func atIsothermEnd(T float64, q Quantity, val float64, bs []branch) (State, bool) {
+	b := bs[len(bs)-1]
+	pr := eval(b.r, b.hi, T)
+	if math.Abs(value(q, &pr)-val) <= resTol(q, val) && accept(b.r, &pr) {
+		return singleState(b.r, pr), true
+	}
+	return State{}, false
+}
+
+// bridgeOnIsotherm returns the state where val falls in the gap between
+// the values of two neighbouring stretches of the isotherm at their common
+// boundary (regions 2 and 3 on the B23 line, whose equations agree there
+// only within IF97's consistency; see fallbackIsobar): the lower
+// stretch's equation continued past its top by Newton steps at fixed T.
+func bridgeOnIsotherm(T float64, q Quantity, val float64, bs []branch) (State, bool) {
+	for i := 0; i+1 < len(bs); i++ {
+		b, next := bs[i], bs[i+1]
+		top, bottom := eval(b.r, b.hi, T), eval(next.r, next.lo, T)
+		qt, qb := value(q, &top), value(q, &bottom)
+		tol := resTol(q, val)
+		if !(val >= math.Min(qt, qb)-tol && val <= math.Max(qt, qb)+tol) || b.r == next.r {
+			continue
+		}
+		pr, ok := newton(b.r, Temperature, T, q, val, b.hi, T, maxNewtonSteps, 1)
+		if !ok || math.Abs(pr.P/top.P-1) > 1e-3 {
+			continue
+		}
+		s := singleState(b.r, pr)
+		s.Warnings = append(s.Warnings, note("this value lies between the values that the equations of two neighbouring IF97 regions give at their boundary at {0}; region "+strconv.Itoa(b.r)+"'s equation is continued to {1}, within the consistency IF97 states for the two",
+			fig(Pressure, top.P), fig(Pressure, pr.P)))
+		return s, true
+	}
+	return State{}, false
+}
+
 // seen reports whether a state at pressure p is already in found (the same
-// state reached from two regions at their common boundary).
+// state reached from two regions at their common boundary, or a saturated
+// phase reached from its single-phase side too).
 func seen(found []State, p float64) bool {
 	for _, s := range found {
-		if math.Abs(s.P-p) <= 1e-9*p && !s.HasX {
+		if math.Abs(s.P-p) <= 1e-8*p {
 			return true
 		}
 	}
@@ -367,12 +388,12 @@ func seen(found []State, p float64) bool {
 }
 
 func outOfRangeAlongIsotherm(q Quantity, val, T, qMin, qMax float64) error {
-	lim, side := qMin, "below"
 	if val > qMax {
-		lim, side = qMax, "above"
+		return outOfRange(q, val, qMax, q.Symbol()+" above {0}, its highest value along the isotherm T = {1} within the range of validity",
+			fig(q, qMax), fig(Temperature, T))
 	}
-	return outOfRange(q, val, lim, "%s %s %.8g %s, its %s value along the isotherm T = %g K within the range of validity",
-		q.Symbol(), side, lim, q.BaseUnit(), map[string]string{"below": "lowest", "above": "highest"}[side], T)
+	return outOfRange(q, val, qMin, q.Symbol()+" below {0}, its lowest value along the isotherm T = {1} within the range of validity",
+		fig(q, qMin), fig(Temperature, T))
 }
 
 // crossings samples f on [lo, hi] (on a log scale if logScale) and returns
