@@ -121,6 +121,9 @@ func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
 		if sep != nil && sep.Gauge != u.Gauge {
 			return 0, nil, false
 		}
+		if u.vacuum() && v < 0 {
+			return 0, nil, false
+		}
 	case sep != nil:
 		u = sep
 	default:
@@ -169,13 +172,17 @@ const recentSlots = 4
 
 var (
 	recentUnits [numDims][recentSlots]atomic.Pointer[recentUnit]
-	// recentMiss holds a hash of the last text per quantity that missed:
-	// an entry is made (one allocation) only when the same text misses
-	// twice in a row, so text whose unit changes on every value costs a
-	// hash, not an allocation.
-	recentMiss [numDims]atomic.Uint64
-	// recentNext picks the slot the next entry replaces, in turn.
-	recentNext [numDims]atomic.Uint32
+	// recentMiss holds hashes of the last few texts per quantity that
+	// missed: an entry is made (one allocation) only when a text misses
+	// again while its hash is still here, so two columns in two units
+	// (A, B, A, B, …) are both remembered from their second row on, while
+	// text whose unit changes on every value costs a hash, not an
+	// allocation.
+	recentMiss [numDims][recentSlots]atomic.Uint64
+	// recentNext and recentMissNext pick the slot the next entry or
+	// miss replaces, in turn.
+	recentNext     [numDims]atomic.Uint32
+	recentMissNext [numDims]atomic.Uint32
 )
 
 // findRecent is find for parseFast, through recentUnits. Only texts that
@@ -189,10 +196,17 @@ func findRecent(text string, d Dim) (int, bool) {
 	}
 	k, _, ok := find(text, d)
 	if ok && len(text) <= maxKey {
-		if h := textHash(text); recentMiss[d].Swap(h) == h {
-			j := recentNext[d].Add(1) % recentSlots
-			slots[j].Store(&recentUnit{text: strings.Clone(text), k: k})
+		h := textHash(text)
+		misses := &recentMiss[d]
+		for j := range misses {
+			if misses[j].Load() == h {
+				misses[j].Store(0)
+				j := recentNext[d].Add(1) % recentSlots
+				slots[j].Store(&recentUnit{text: strings.Clone(text), k: k})
+				return k, ok
+			}
 		}
+		misses[recentMissNext[d].Add(1)%recentSlots].Store(h)
 	}
 	return k, ok
 }

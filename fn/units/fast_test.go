@@ -109,3 +109,45 @@ func TestFindRecentMatchesFind(t *testing.T) {
 		<-done
 	}
 }
+
+// TestRecentUnitsAlternate: two columns of one quantity in two units, read
+// row by row (A, B, A, B, …), are both remembered, and reading them then
+// allocates nothing. The cache used to make an entry only for a text that
+// missed twice in a row, which alternating units never do.
+func TestRecentUnitsAlternate(t *testing.T) {
+	for j := range recentUnits[Pressure] {
+		recentUnits[Pressure][j].Store(nil)
+		recentMiss[Pressure][j].Store(0)
+	}
+	rows := []string{"6 barg", "600 kPag"}
+	parse := func() {
+		for _, text := range rows {
+			if _, err := Parse(text, Pressure, Options{}); err != nil {
+				t.Fatal(err)
+			}
+		}
+	}
+	parse()
+	parse()
+	for _, unit := range []string{"barg", "kPag"} {
+		found := false
+		for j := range recentUnits[Pressure] {
+			if r := recentUnits[Pressure][j].Load(); r != nil && r.text == unit {
+				found = true
+			}
+		}
+		if !found {
+			t.Errorf("unit %q not remembered after two rows of %q", unit, rows)
+		}
+	}
+	if n := testing.AllocsPerRun(1000, parse); n != 0 {
+		t.Errorf("reading two alternating units allocates %g times a row pair, want 0", n)
+	}
+	// Six units in turn overflow the cache; their misses must not make
+	// an entry on every value.
+	rows = []string{"1 bar", "1 psia", "1 mbar", "1 kPa", "1 MPa", "1 atm"}
+	parse()
+	if n := testing.AllocsPerRun(200, parse); n != 0 {
+		t.Errorf("reading six rotating units allocates %g times a round, want 0", n)
+	}
+}
