@@ -128,6 +128,14 @@ func TestErrorClasses(t *testing.T) {
 		w := get(srv, tc.target)
 		checkJSONError(t, tc.target, w.Code, w.Body.Bytes(), w.Header().Get("Content-Type"), tc.status, tc.code, tc.param)
 	}
+	// A bad get= on /workbook is the property error (issue 11: it was
+	// bad_workbook); phase and region are properties of the filler.
+	wb, _ := newServer(t, server.Config{Workbook: failingFiller{"copy"}})
+	w := send(wb, http.MethodPost, "/workbook?name=a.xlsx&get=h,enthalpyy", "PK", nil)
+	checkJSONError(t, "/workbook get=enthalpyy", w.Code, w.Body.Bytes(), w.Header().Get("Content-Type"), 400, "unknown_property", "enthalpyy")
+	if w := send(wb, http.MethodPost, "/workbook?name=a.xlsx&get=h,phase,region,all", "PK", nil); w.Code != 200 {
+		t.Errorf("/workbook get=h,phase,region,all: %d %s", w.Code, w.Body)
+	}
 }
 
 // TestStatePropertyErrors: the plain-text route answers errors as one line

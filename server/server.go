@@ -67,7 +67,8 @@ type Server struct {
 	engine  *gin.Engine
 	metrics *metrics
 	token   []byte
-	fills   chan struct{} // one token per /workbook fill running
+	fills   chan struct{}     // one token per /workbook fill running
+	allow   map[string]string // route -> the methods it answers, for Allow
 }
 
 // New returns a server set up by cfg.
@@ -110,16 +111,18 @@ func (s *Server) routes() *gin.Engine {
 	r.RedirectFixedPath = false
 	r.HandleMethodNotAllowed = true
 	r.ContextWithFallback = true
-	r.Use(s.logRequests, s.recoverPanics, s.cors, s.authorize)
+	r.Use(s.logRequests, s.recoverPanics, s.allowed, s.cors, s.authorize)
 
-	r.GET("/state", s.getState)
-	r.GET("/state/:property", s.getStateProperty)
-	r.GET("/saturation", s.getSaturation)
-	r.POST("/batch", s.postBatch)
-	r.POST("/workbook", s.postWorkbook)
-	r.GET("/openapi.json", s.getOpenAPI)
-	r.GET("/healthz", s.getHealth)
-	r.GET("/metrics", s.getMetrics)
+	s.handle(r, "GET", "/state", s.getState)
+	s.handle(r, "GET", "/state/status", s.getStateStatus)
+	s.handle(r, "GET", "/state/:property", s.getStateProperty)
+	s.handle(r, "GET", "/saturation", s.getSaturation)
+	s.handle(r, "GET", "/saturation/:property", s.getSaturationProperty)
+	s.handle(r, "POST", "/batch", s.postBatch)
+	s.handle(r, "POST", "/workbook", s.postWorkbook)
+	s.handle(r, "GET", "/openapi.json", s.getOpenAPI)
+	s.handle(r, "GET", "/healthz", s.getHealth)
+	s.handle(r, "GET", "/metrics", s.getMetrics)
 
 	r.NoRoute(s.noRoute)
 	r.NoMethod(s.noMethod)
@@ -146,14 +149,16 @@ func (s *Server) HTTPServer(addr string) *http.Server {
 
 // routeNames are the routes as metrics and logs name them.
 var routeNames = map[string]string{
-	"/state":           "/state",
-	"/state/:property": "/state/{property}",
-	"/saturation":      "/saturation",
-	"/batch":           "/batch",
-	"/workbook":        "/workbook",
-	"/openapi.json":    "/openapi.json",
-	"/healthz":         "/healthz",
-	"/metrics":         "/metrics",
+	"/state":                "/state",
+	"/state/status":         "/state/status",
+	"/state/:property":      "/state/{property}",
+	"/saturation":           "/saturation",
+	"/saturation/:property": "/saturation/{property}",
+	"/batch":                "/batch",
+	"/workbook":             "/workbook",
+	"/openapi.json":         "/openapi.json",
+	"/healthz":              "/healthz",
+	"/metrics":              "/metrics",
 }
 
 // routeOf names the route of a request; "unmatched" for no route, so that
@@ -167,7 +172,7 @@ func routeOf(c *gin.Context) string {
 
 // noRoute answers a path that is no route.
 func (s *Server) noRoute(c *gin.Context) {
-	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
+	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /state/status, GET /saturation, GET /saturation/{property}, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
 }
 
 // noMethod answers a route asked with the wrong method.
