@@ -170,15 +170,20 @@ type recentUnit struct {
 // for the columns of one quantity that a sheet gives in different units.
 const recentSlots = 4
 
+// recentMisses is how many missed texts per quantity are remembered (see
+// recentMiss).
+const recentMisses = 2
+
 var (
 	recentUnits [numDims][recentSlots]atomic.Pointer[recentUnit]
-	// recentMiss holds hashes of the last few texts per quantity that
+	// recentMiss holds hashes of the last two texts per quantity that
 	// missed: an entry is made (one allocation) only when a text misses
 	// again while its hash is still here, so two columns in two units
 	// (A, B, A, B, …) are both remembered from their second row on, while
-	// text whose unit changes on every value costs a hash, not an
-	// allocation.
-	recentMiss [numDims][recentSlots]atomic.Uint64
+	// units that rotate through more texts than that (six columns in six
+	// units) cost a hash, not an allocation: two is below recentSlots, so
+	// such a rotation never admits entries that push each other out.
+	recentMiss [numDims][recentMisses]atomic.Uint64
 	// recentNext and recentMissNext pick the slot the next entry or
 	// miss replaces, in turn.
 	recentNext     [numDims]atomic.Uint32
@@ -206,7 +211,7 @@ func findRecent(text string, d Dim) (int, bool) {
 				return k, ok
 			}
 		}
-		misses[recentMissNext[d].Add(1)%recentSlots].Store(h)
+		misses[recentMissNext[d].Add(1)%recentMisses].Store(h)
 	}
 	return k, ok
 }
