@@ -231,3 +231,26 @@ func grepLines(s, sub string) string {
 	}
 	return strings.Join(out, "\n")
 }
+
+// BenchmarkCalcProbe measures what LibreOffice Calc sends for one
+// WEBSERVICE cell (OPTIONS, HEAD, GET), against one GET of the same URL;
+// compare the two in one run. A repeated GET costs what the first did.
+func BenchmarkCalcProbe(b *testing.B) {
+	srv, _ := newServer(b, server.Config{})
+	target := "/state/h?p=6barg&t=330C"
+	for _, bc := range []struct {
+		name    string
+		methods []string
+	}{{"GET", []string{"GET"}}, {"OPTIONS+HEAD+GET", []string{"OPTIONS", "HEAD", "GET"}}, {"GET+GET", []string{"GET", "GET"}}} {
+		b.Run(bc.name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				for _, m := range bc.methods {
+					if w := send(srv, m, target, "", nil); w.Code >= 300 {
+						b.Fatal(m, w.Code)
+					}
+				}
+			}
+		})
+	}
+}
