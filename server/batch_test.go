@@ -360,7 +360,7 @@ func TestBatchHostileBodies(t *testing.T) {
 			}
 		case 400, 413, 415:
 			var e errorBody
-			if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || e.Error.Code == "" {
+			if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || e.Code == "" {
 				t.Fatalf("body %d %q: error answer %s", i, b.String(), w.Body)
 			}
 		default:

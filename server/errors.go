@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"log/slog"
 	"net/http"
+	"strconv"
 	"strings"
 	"unicode"
 	"unicode/utf8"
@@ -118,6 +119,7 @@ var errorTable = []errorClass{
 	{units.ErrUnknownUnit, http.StatusBadRequest, "unknown_unit"},
 	{units.ErrWrongDimension, http.StatusBadRequest, "wrong_unit_quantity"},
 	{units.ErrNegativeAbsolute, http.StatusBadRequest, "not_above_absolute_zero"},
+	{units.ErrPressureNotPositive, http.StatusBadRequest, "pressure_not_positive"},
 	{units.ErrQualityRange, http.StatusBadRequest, "quality_range"},
 	{units.ErrUnitConflict, http.StatusBadRequest, "unit_conflict"},
 	{units.ErrBadPatm, http.StatusBadRequest, "bad_patm"},
@@ -136,12 +138,18 @@ var errorTable = []errorClass{
 // internalCode is the code of every error not in errorTable.
 const internalCode = "internal"
 
-// problem is an error as the user sees it.
+// problemTypePrefix makes a problem type URI (RFC 9457, 3.1.1) of a code:
+// the URN names the kind of problem for good, whatever host serves it.
+const problemTypePrefix = "urn:steamcell:problem:"
+
+// problem is an error as the user sees it: the members of an RFC 9457
+// problem details object, with our stable code and the parameter concerned.
 type problem struct {
 	Status int
 	Code   string
+	Title  string // short summary of the kind, the same for every occurrence
 	Param  string
-	Msg    string
+	Msg    string // the detail: this occurrence, and what to change
 }
 
 // classify is the one place that turns an error into a status, a code, the
@@ -150,10 +158,10 @@ type problem struct {
 func classify(err error) problem {
 	for _, c := range errorTable {
 		if errors.Is(err, c.kind) {
-			return problem{Status: c.status, Code: c.code, Param: paramOf(err), Msg: message(err)}
+			return problem{Status: c.status, Code: c.code, Title: c.kind.Error(), Param: paramOf(err), Msg: message(err)}
 		}
 	}
-	return problem{Status: http.StatusInternalServerError, Code: internalCode, Msg: "internal error"}
+	return problem{Status: http.StatusInternalServerError, Code: internalCode, Title: "internal error", Msg: "internal error"}
 }
 
 // paramOf returns the input or parameter an error is about.
@@ -200,22 +208,53 @@ func clean(s string, max int) string {
 	return s
 }
 
-// fail answers a JSON route with the error and stops the handler chain.
+// fail answers a JSON route with the error as RFC 9457 problem details
+// (application/problem+json) and stops the handler chain.
 func (s *Server) fail(c *gin.Context, err error) {
 	p := s.note(c, err)
-	b := make([]byte, 0, 256)
-	b = append(b, `{"error":{"code":`...)
-	b = appendJSONString(b, p.Code)
-	b = append(b, `,"message":`...)
+	c.Header("Cache-Control", "no-store")
+	c.Data(p.Status, problemType, appendProblem(make([]byte, 0, 512), &p, instance(c)))
+	c.Abort()
+}
+
+// problemType is the media type of a problem details answer (RFC 9457, 3).
+const problemType = "application/problem+json; charset=utf-8"
+
+// appendProblem writes p as an RFC 9457 problem details object: the
+// standard members type, title, status, detail and instance (section 3.1),
+// then ours, code (stable, the last part of type) and param (the input or
+// parameter concerned, when there is one).
+func appendProblem(b []byte, p *problem, instance string) []byte {
+	b = append(b, `{"type":`...)
+	b = appendJSONString(b, problemTypePrefix+p.Code)
+	b = append(b, `,"title":`...)
+	b = appendJSONString(b, p.Title)
+	b = append(b, `,"status":`...)
+	b = strconv.AppendInt(b, int64(p.Status), 10)
+	b = append(b, `,"detail":`...)
 	b = appendJSONString(b, p.Msg)
+	if instance != "" {
+		b = append(b, `,"instance":`...)
+		b = appendJSONString(b, instance)
+	}
+	b = append(b, `,"code":`...)
+	b = appendJSONString(b, p.Code)
 	if p.Param != "" {
 		b = append(b, `,"param":`...)
 		b = appendJSONString(b, p.Param)
 	}
-	b = append(b, "}}\n"...)
-	c.Header("Cache-Control", "no-store")
-	c.Data(p.Status, "application/json; charset=utf-8", b)
-	c.Abort()
+	return append(b, "}\n"...)
+}
+
+// instance names the occurrence of a problem (RFC 9457, 3.1.5): the
+// request's path and query, with any key= redacted, as a relative URI
+// reference.
+func instance(c *gin.Context) string {
+	u := c.Request.URL.EscapedPath()
+	if q := c.Request.URL.RawQuery; q != "" {
+		u += "?" + redactQuery(q)
+	}
+	return clean(u, 400)
 }
 
 // failText answers a plain-text route with a one-line reason.
@@ -226,8 +265,9 @@ func (s *Server) failText(c *gin.Context, err error) {
 	c.Abort()
 }
 
-// note classifies err, logs internal faults, records the code for the
-// request log and the metrics, and returns the problem.
+// note classifies err, logs internal faults with the request's inputs (the
+// query, key= redacted), records the code for the request log and the
+// metrics, and returns the problem.
 func (s *Server) note(c *gin.Context, err error) problem {
 	p := classify(err)
 	if p.Status == http.StatusUnauthorized {
@@ -235,7 +275,9 @@ func (s *Server) note(c *gin.Context, err error) problem {
 	}
 	if p.Code == internalCode {
 		s.log.LogAttrs(c.Request.Context(), slog.LevelError, "internal error",
-			slog.String("route", routeOf(c)), slog.String("error", err.Error()))
+			slog.String("route", routeOf(c)), slog.String("method", clean(c.Request.Method, 10)),
+			slog.String("query", clean(redactQuery(c.Request.URL.RawQuery), 600)),
+			slog.String("error", err.Error()))
 	}
 	c.Set(ctxErrorCode, p.Code)
 	return p

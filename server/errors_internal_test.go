@@ -3,7 +3,13 @@ package server
 import (
 	"errors"
 	"fmt"
+	"log/slog"
+	"net/http"
+	"net/http/httptest"
+	"strings"
 	"testing"
+
+	"github.com/gin-gonic/gin"
 
 	"steamcell/fn"
 	"steamcell/fn/point"
@@ -26,7 +32,8 @@ func TestErrorTable(t *testing.T) {
 		{&units.InputError{Name: "p", Err: units.ErrNotFinite}, 400, "not_finite"},
 		{&units.InputError{Name: "p", Err: units.ErrUnknownUnit}, 400, "unknown_unit"},
 		{&units.InputError{Name: "p", Err: units.ErrWrongDimension}, 400, "wrong_unit_quantity"},
-		{&units.InputError{Name: "p", Err: units.ErrNegativeAbsolute}, 400, "not_above_absolute_zero"},
+		{&units.InputError{Name: "t", Err: units.ErrNegativeAbsolute}, 400, "not_above_absolute_zero"},
+		{&units.InputError{Name: "p", Err: units.ErrPressureNotPositive}, 400, "pressure_not_positive"},
 		{&units.InputError{Name: "x", Err: units.ErrQualityRange}, 400, "quality_range"},
 		{&units.InputError{Name: "p", Err: units.ErrUnitConflict}, 400, "unit_conflict"},
 		{&units.InputError{Name: "patm", Err: units.ErrBadPatm}, 400, "bad_patm"},
@@ -112,5 +119,30 @@ func TestRedactQuery(t *testing.T) {
 		if got := redactQuery(raw); got != want {
 			t.Errorf("redactQuery(%q) = %q, want %q", raw, got, want)
 		}
+	}
+}
+
+// TestInternalErrorLogged: an error of a kind the table does not know (a
+// solver that did not converge, say, which is our fault and not the
+// user's) is answered 500 "internal error" and logged with the request's
+// inputs, the key redacted (issue 11).
+func TestInternalErrorLogged(t *testing.T) {
+	var logs strings.Builder
+	s := New(Config{Logger: slog.New(slog.NewJSONHandler(&logs, nil))})
+	w := httptest.NewRecorder()
+	c, _ := gin.CreateTestContext(w)
+	c.Request = httptest.NewRequest(http.MethodGet, "/state?p=33.99MPa&h=1599.59&key=s3cret", nil)
+	errSolver := errors.New("solver did not converge")
+	s.fail(c, fmt.Errorf("(p,h) at 33.99 MPa: %w", errSolver))
+	if w.Code != 500 || !strings.Contains(w.Body.String(), `"detail":"internal error"`) || strings.Contains(w.Body.String(), "converge") {
+		t.Errorf("answer %d %s, want 500 internal error without the fault's text", w.Code, w.Body)
+	}
+	for _, want := range []string{`"level":"ERROR"`, "p=33.99MPa&h=1599.59", "key=REDACTED", "did not converge"} {
+		if !strings.Contains(logs.String(), want) {
+			t.Errorf("log lacks %q:\n%s", want, logs.String())
+		}
+	}
+	if strings.Contains(logs.String(), "s3cret") {
+		t.Errorf("the key reached the log:\n%s", logs.String())
 	}
 }

@@ -17,37 +17,44 @@ import (
 	"steamcell/server"
 )
 
-// errorBody is the JSON error answer.
+// errorBody is the error answer: RFC 9457 problem details (section 3.1
+// for the standard members) with our code and param.
 type errorBody struct {
-	Error struct {
-		Code    string `json:"code"`
-		Message string `json:"message"`
-		Param   string `json:"param"`
-	} `json:"error"`
+	Type     string `json:"type"`
+	Title    string `json:"title"`
+	Status   int    `json:"status"`
+	Detail   string `json:"detail"`
+	Instance string `json:"instance"`
+	Code     string `json:"code"`
+	Param    string `json:"param"`
 }
 
-// checkJSONError checks that an answer is the JSON error with the status
-// and code, and that its message is a safe, non-empty line.
+// checkJSONError checks that an answer is problem details (RFC 9457) with
+// the status and code, that its members agree (status as sent, type made
+// of the code) and that its detail is a safe, non-empty line.
 func checkJSONError(t *testing.T, what string, status int, body []byte, ctype string, wantStatus int, wantCode, wantParam string) {
 	t.Helper()
 	if status != wantStatus {
 		t.Errorf("%s: status %d, want %d: %s", what, status, wantStatus, body)
 	}
-	if !strings.HasPrefix(ctype, "application/json") {
-		t.Errorf("%s: Content-Type %q, want JSON", what, ctype)
+	if !strings.HasPrefix(ctype, "application/problem+json") {
+		t.Errorf("%s: Content-Type %q, want application/problem+json", what, ctype)
 	}
 	var e errorBody
 	if err := json.Unmarshal(body, &e); err != nil {
 		t.Errorf("%s: error answer is not JSON: %v: %s", what, err, body)
 		return
 	}
-	if e.Error.Code != wantCode {
-		t.Errorf("%s: code %q, want %q (%s)", what, e.Error.Code, wantCode, e.Error.Message)
+	if e.Code != wantCode {
+		t.Errorf("%s: code %q, want %q (%s)", what, e.Code, wantCode, e.Detail)
 	}
-	if wantParam != "" && e.Error.Param != wantParam {
-		t.Errorf("%s: param %q, want %q", what, e.Error.Param, wantParam)
+	if wantParam != "" && e.Param != wantParam {
+		t.Errorf("%s: param %q, want %q", what, e.Param, wantParam)
 	}
-	checkMessage(t, what, e.Error.Message)
+	if e.Status != status || e.Type != "urn:steamcell:problem:"+e.Code || e.Title == "" || !strings.HasPrefix(e.Instance, "/") {
+		t.Errorf("%s: problem members type %q, title %q, status %d, instance %q; want the code's type, a title, status %d and the request", what, e.Type, e.Title, e.Status, e.Instance, status)
+	}
+	checkMessage(t, what, e.Detail)
 }
 
 // checkMessage checks that a message is one line of valid UTF-8 with no
@@ -121,6 +128,14 @@ func TestErrorClasses(t *testing.T) {
 		w := get(srv, tc.target)
 		checkJSONError(t, tc.target, w.Code, w.Body.Bytes(), w.Header().Get("Content-Type"), tc.status, tc.code, tc.param)
 	}
+	// A bad get= on /workbook is the property error (issue 11: it was
+	// bad_workbook); phase and region are properties of the filler.
+	wb, _ := newServer(t, server.Config{Workbook: failingFiller{"copy"}})
+	w := send(wb, http.MethodPost, "/workbook?name=a.xlsx&get=h,enthalpyy", "PK", nil)
+	checkJSONError(t, "/workbook get=enthalpyy", w.Code, w.Body.Bytes(), w.Header().Get("Content-Type"), 400, "unknown_property", "enthalpyy")
+	if w := send(wb, http.MethodPost, "/workbook?name=a.xlsx&get=h,phase,region,all", "PK", nil); w.Code != 200 {
+		t.Errorf("/workbook get=h,phase,region,all: %d %s", w.Code, w.Body)
+	}
 }
 
 // TestStatePropertyErrors: the plain-text route answers errors as one line
@@ -186,16 +201,16 @@ func TestHostileQueries(t *testing.T) {
 		{"only separators", "/state?&&&&", 400, "input_count"},
 		{"empty name", "/state?=1&t=300C", 400, "unknown_parameter"},
 		{"huge exponent", "/state?p=1e308MPa&t=300C", 422, "out_of_range"},
-		{"negative zero", "/state?p=-0MPa&t=300C", 400, "not_above_absolute_zero"},
+		{"negative zero", "/state?p=-0MPa&t=300C", 400, "pressure_not_positive"},
 	} {
 		w := get(srv, tc.target)
 		var e errorBody
-		if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || w.Code != tc.status || (tc.code != "" && e.Error.Code != tc.code) {
+		if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || w.Code != tc.status || (tc.code != "" && e.Code != tc.code) {
 			t.Errorf("%s: %d %s, want %d %s", tc.name, w.Code, clip(w.Body.String()), tc.status, tc.code)
 		}
-		checkMessage(t, tc.name, e.Error.Message)
-		if len(e.Error.Message) > 1000 {
-			t.Errorf("%s: message of %d bytes", tc.name, len(e.Error.Message))
+		checkMessage(t, tc.name, e.Detail)
+		if len(e.Detail) > 1000 {
+			t.Errorf("%s: message of %d bytes", tc.name, len(e.Detail))
 		}
 	}
 	if strings.Contains(logs.String(), `"level":"ERROR"`) {
@@ -251,7 +266,7 @@ func TestHostileQueries(t *testing.T) {
 		}
 		if w.Code != 200 && path != "/state/h" {
 			var e errorBody
-			if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || e.Error.Code == "" {
+			if err := json.Unmarshal(w.Body.Bytes(), &e); err != nil || e.Code == "" {
 				t.Fatalf("%s: error answer %q is not the JSON error", target, w.Body)
 			}
 		}
@@ -298,8 +313,8 @@ func TestInternalErrors(t *testing.T) {
 		checkJSONError(t, mode, w.Code, w.Body.Bytes(), w.Header().Get("Content-Type"), 500, "internal", "")
 		var e errorBody
 		_ = json.Unmarshal(w.Body.Bytes(), &e)
-		if e.Error.Message != "internal error" {
-			t.Errorf("%s: message %q, want \"internal error\"", mode, e.Error.Message)
+		if e.Detail != "internal error" {
+			t.Errorf("%s: message %q, want \"internal error\"", mode, e.Detail)
 		}
 		if strings.Contains(w.Body.String(), "secret") || strings.Contains(w.Body.String(), "index out of range") {
 			t.Errorf("%s: answer shows the fault: %s", mode, w.Body)

@@ -75,7 +75,7 @@ const (
 	takesGet                       // get=
 	takesFormat                    // format=json|csv
 	takesName                      // name= (file name of an upload)
-	takesGetList                   // get=, passed on unchecked (the workbook filler checks it)
+	takesGetList                   // get=, checked but passed on as given (the workbook filler expands it)
 )
 
 // request is what a query asks for.
@@ -154,10 +154,19 @@ func (s *Server) readRequest(raw string, t takes) (request, error) {
 	}
 	req.opt.Set = set
 	if getText != "" && t&takesGetList != 0 {
+		// Passed on as given, for the filler to expand; a name that is no
+		// property is refused here as the property error, not as a bad
+		// workbook.
 		for g := range strings.SplitSeq(getText, ",") {
-			if g = strings.TrimSpace(g); g != "" {
-				req.syms = append(req.syms, g)
+			if g = strings.TrimSpace(g); g == "" {
+				continue
 			}
+			if w := strings.ToLower(g); w != "phase" && w != "region" {
+				if _, err := point.Symbols([]string{g}); err != nil {
+					return req, err
+				}
+			}
+			req.syms = append(req.syms, g)
 		}
 	} else if getText != "" {
 		// phase and region are in every answer; asking for them is fine.
@@ -173,6 +182,8 @@ func (s *Server) readRequest(raw string, t takes) (request, error) {
 		}
 		req.all = slices.ContainsFunc(list, func(g string) bool { return strings.EqualFold(strings.TrimSpace(g), "all") })
 	}
+	// Figures in messages and warnings in the units the inputs were typed in.
+	req.opt = req.opt.Typed(req.given)
 	return req, nil
 }
 

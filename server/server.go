@@ -5,6 +5,8 @@ import (
 	"log/slog"
 	"net/http"
 	"runtime"
+	"slices"
+	"strings"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -81,6 +83,7 @@ type Server struct {
 	draining atomic.Bool   // set by Drain: /readyz answers 503
 	stopping chan struct{} // closed by StopStreams
 	stopOnce sync.Once
+	allow    map[string]string // route -> the methods it answers, for Allow
 }
 
 // New returns a server set up by cfg.
@@ -125,17 +128,11 @@ func (s *Server) routes() *gin.Engine {
 	r.RedirectFixedPath = false
 	r.HandleMethodNotAllowed = true
 	r.ContextWithFallback = true
-	r.Use(s.logRequests, s.recoverPanics, s.cors, s.authorize)
+	r.Use(s.logRequests, s.recoverPanics, s.allowed, s.cors, s.authorize)
 
-	r.GET("/state", s.getState)
-	r.GET("/state/:property", s.getStateProperty)
-	r.GET("/saturation", s.getSaturation)
-	r.POST("/batch", s.limitBulk, s.postBatch)
-	r.POST("/workbook", s.limitBulk, s.postWorkbook)
-	r.GET("/openapi.json", s.getOpenAPI)
-	r.GET("/healthz", s.getHealth)
-	r.GET("/readyz", s.getReady)
-	r.GET("/metrics", s.getMetrics)
+	for _, rt := range s.table() {
+		s.handle(r, rt.method, rt.path, rt.handlers...)
+	}
 
 	r.NoRoute(s.noRoute)
 	r.NoMethod(s.noMethod)
@@ -160,17 +157,58 @@ func (s *Server) HTTPServer(addr string) *http.Server {
 	}
 }
 
-// routeNames are the routes as metrics and logs name them.
-var routeNames = map[string]string{
-	"/state":           "/state",
-	"/state/:property": "/state/{property}",
-	"/saturation":      "/saturation",
-	"/batch":           "/batch",
-	"/workbook":        "/workbook",
-	"/openapi.json":    "/openapi.json",
-	"/healthz":         "/healthz",
-	"/readyz":          "/readyz",
-	"/metrics":         "/metrics",
+// route is one row of the server's route table.
+type route struct {
+	method   string
+	path     string // in gin's syntax: "/state/:property"
+	handlers []gin.HandlerFunc
+}
+
+// table is the one list of the server's routes: the router, the names of
+// metrics and logs, and the no-route message are made from it.
+func (s *Server) table() []route {
+	h := func(hs ...gin.HandlerFunc) []gin.HandlerFunc { return hs }
+	return []route{
+		{"GET", "/state", h(s.getState)},
+		{"GET", "/state/status", h(s.getStateStatus)},
+		{"GET", "/state/:property", h(s.getStateProperty)},
+		{"GET", "/saturation", h(s.getSaturation)},
+		{"GET", "/saturation/:property", h(s.getSaturationProperty)},
+		{"POST", "/batch", h(s.limitBulk, s.postBatch)},
+		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook)},
+		{"GET", "/openapi.json", h(s.getOpenAPI)},
+		{"GET", "/healthz", h(s.getHealth)},
+		{"GET", "/readyz", h(s.getReady)},
+		{"GET", "/metrics", h(s.getMetrics)},
+	}
+}
+
+// routeNames are the routes as metrics and logs name them ("/state/:property"
+// as "/state/{property}", the form of openapi.json), and routeList the list
+// of routes for the no-route message, both made from the route table.
+var (
+	routeNames = map[string]string{}
+	routeList  string
+)
+
+func init() {
+	var l []string
+	for _, rt := range (&Server{}).table() {
+		routeNames[rt.path] = openAPIPath(rt.path)
+		l = append(l, rt.method+" "+openAPIPath(rt.path))
+	}
+	routeList = strings.Join(l, ", ")
+}
+
+// openAPIPath writes a gin path in the form of OpenAPI: ":name" as "{name}".
+func openAPIPath(path string) string {
+	parts := strings.Split(path, "/")
+	for i, p := range parts {
+		if strings.HasPrefix(p, ":") {
+			parts[i] = "{" + p[1:] + "}"
+		}
+	}
+	return strings.Join(parts, "/")
 }
 
 // routeOf names the route of a request; "unmatched" for no route, so that
@@ -184,10 +222,21 @@ func routeOf(c *gin.Context) string {
 
 // noRoute answers a path that is no route.
 func (s *Server) noRoute(c *gin.Context) {
-	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /readyz, GET /metrics", clean(c.Request.URL.Path, 80)))
+	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are %s", clean(c.Request.URL.Path, 80), routeList))
 }
 
 // noMethod answers a route asked with the wrong method.
 func (s *Server) noMethod(c *gin.Context) {
 	s.fail(c, errorf(ErrMethod, "", "%s does not take %s", clean(c.Request.URL.Path, 80), clean(c.Request.Method, 10)))
+}
+
+// RoutePaths lists the paths of the route table as openapi.json writes
+// them, sorted, each once.
+func RoutePaths() []string {
+	var paths []string
+	for _, n := range routeNames {
+		paths = append(paths, n)
+	}
+	slices.Sort(paths)
+	return slices.Compact(paths)
 }

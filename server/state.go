@@ -7,6 +7,7 @@ import (
 
 	"github.com/gin-gonic/gin"
 
+	"steamcell/fn"
 	"steamcell/fn/point"
 )
 
@@ -93,6 +94,45 @@ func (s *Server) getStateProperty(c *gin.Context) {
 		}
 		*buf = appendNumber(*buf, f.Value)
 	}
+	writeBody(c, http.StatusOK, textType, *buf)
+}
+
+// getStateStatus answers, as one line of text with status 200, whether
+// the inputs fix a state and how safely: "ok"; "check: " and the warnings
+// (within 0.5 K of saturation, say, where a small error in p or T changes
+// the phase); or "error: " and the reason the state cannot be given. A
+// cell beside a /state/{property} cell, which shows only #VALUE! for a
+// refusal, can so show why. Only a fault of the server is answered with an
+// error status (500).
+//
+// GET /state/status
+func (s *Server) getStateStatus(c *gin.Context) {
+	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs)
+	var st fn.State
+	if err == nil {
+		st, _, err = point.Solve(req.given, req.opt)
+	}
+	buf := getBuf()
+	defer putBuf(buf)
+	switch {
+	case err != nil:
+		p := classify(err)
+		if p.Code == internalCode {
+			s.failText(c, err)
+			return
+		}
+		*buf = append(append(*buf, "error: "...), p.Msg...)
+	default:
+		ans := point.Render(&st, []string{}, req.opt)
+		if len(ans.Warnings) == 0 {
+			*buf = append(*buf, "ok"...)
+			break
+		}
+		w := strings.Join(ans.Warnings, "; ")
+		c.Header("Steamcell-Warning", headerText(w))
+		*buf = append(append(*buf, "check: "...), clean(w, 600)...)
+	}
+	c.Header("Cache-Control", "no-store")
 	writeBody(c, http.StatusOK, textType, *buf)
 }
 

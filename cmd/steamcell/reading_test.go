@@ -103,8 +103,8 @@ func postBatch(t *testing.T, srv http.Handler, ctype, body string, tc tabletest.
 	w := httptest.NewRecorder()
 	srv.ServeHTTP(w, req)
 	var a struct {
-		Error struct{ Message string }
-		Rows  []struct {
+		Detail string // of a refusal, as RFC 9457 problem details
+		Rows   []struct {
 			Status string
 			Inputs map[string]float64
 			Units  map[string]string
@@ -115,7 +115,7 @@ func postBatch(t *testing.T, srv http.Handler, ctype, body string, tc tabletest.
 	}
 	switch {
 	case w.Code != http.StatusOK:
-		return reading{refused: a.Error.Message}
+		return reading{refused: a.Detail}
 	case len(a.Rows) != 1:
 		t.Fatalf("%s: %d rows in %s", tc.Name, len(a.Rows), w.Body)
 	case a.Rows[0].Status != "ok":

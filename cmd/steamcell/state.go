@@ -67,6 +67,7 @@ kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.`,
 			if err != nil {
 				return usageError{err}
 			}
+			opt = opt.Typed(given) // figures of warnings in the units typed
 			st, in, err := point.Solve(given, opt)
 			if err != nil {
 				var pe *point.Error

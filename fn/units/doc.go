@@ -50,10 +50,12 @@
 // lists, under these spellings (and their variants by the rules above):
 //
 //	pressure              MPa, Pa (N/m²), kPa, bar, mbar, psia (psi, lbf/in²), atm,
-//	                      kgf/cm² (kg/cm²), mmHg, inHg; gauge: MPag, kPag, barg, mbarg,
-//	                      psig, kgf/cm²g
+//	                      kgf/cm² (kg/cm²), mmHg, inHg, torr, ata (technical atmosphere),
+//	                      mmH2Oa, inH2Oa (mmWCa, inWCa); gauge: MPag, kPag, barg, mbarg,
+//	                      psig, kgf/cm²g, mmH2Og, inH2Og (mmWCg, inWCg); vacuum:
+//	                      inHg vac, mmHg vac, kPa vac
 //	temperature           K (kelvin), °C (C, celsius), °F (F, fahrenheit), °R (R, rankine)
-//	specific energy       kJ/kg (J/g), J/kg, Btu/lb, kcal/kg (cal/g)
+//	specific energy       kJ/kg (J/g), J/kg, MJ/kg (kJ/g), Btu/lb, kcal/kg (cal/g)
 //	specific entropy      kJ/(kg·K), J/(kg·K), Btu/(lb·°R), Btu/(lb·°F), kcal/(kg·K);
 //	                      also per °C, per g, and kJ/kg/K forms
 //	specific volume       m³/kg, L/kg (dm³/kg), cm³/g (mL/g), ft³/lb
@@ -72,7 +74,7 @@
 // Ignoring case is safe because no two units of one quantity differ only by
 // case. Where a spelling in exact SI case names another prefix it is
 // refused rather than read either way: "mPa" (millipascal) and "Mbar" for a
-// pressure, "MPa·s" for a viscosity, "MW/(m·K)", "MN/m", "Mm²/s". So "MPa",
+// pressure, "mJ/kg" for a specific energy, "MPa·s" for a viscosity, "MW/(m·K)", "MN/m", "Mm²/s". So "MPa",
 // "Mpa", "mpa" and "MPA" are megapascal, and "mPa" is an error; "mPa·s" is
 // a viscosity. "K" and "k" are both kelvin for a temperature.
 //
@@ -90,8 +92,19 @@
 // Options.Patm (MPa), by default the standard atmosphere 0.101325 MPa; set
 // it per site or per request, for example about 0.0899 MPa at 1000 m. An
 // absolute pressure at or below zero, typed or reached from a gauge reading,
-// is ErrNegativeAbsolute. Mercury columns (mmHg, inHg) are the
-// conventional ones (13.5951 g/cm³, standard gravity) and absolute.
+// is ErrPressureNotPositive. Mercury columns (mmHg, inHg) are the
+// conventional ones (13.5951 g/cm³, standard gravity) and absolute; torr
+// is 1/760 of the standard atmosphere and ata the technical atmosphere
+// (1 kgf/cm²), both absolute. Water columns (conventional: 1 g/cm³,
+// standard gravity) must carry their mark, mmH2Og or mmH2Oa, inH2Og or
+// inH2Oa: unmarked, "mmH2O" is read both ways in the trade and is refused,
+// and so are "at" and a bare "vac".
+//
+// A vacuum reading counts down from the atmosphere: "28 inHg vac",
+// "710 mmHg vac" and "80 kPa vac" are Options.Patm minus the reading. It
+// is a gauge unit in every other respect; a negative reading is refused
+// (ErrAmbiguousNumber: write a gauge unit), and one beyond the atmosphere
+// is ErrPressureNotPositive.
 //
 // # Temperature
 //
@@ -135,6 +148,7 @@
 //
 // Its Unwrap gives the kind: ErrEmpty, ErrSyntax, ErrAmbiguousNumber,
 // ErrNotFinite, ErrUnknownUnit, ErrWrongDimension, ErrNegativeAbsolute,
+// ErrPressureNotPositive,
 // ErrQualityRange, ErrUnitConflict, ErrBadPatm or ErrUnknownSet.
 //
 // # Sources
@@ -143,7 +157,7 @@
 // 1 ft = 0.3048 m, 1 in = 0.0254 m, Btu (International Table) =
 // 1055.05585262 J, calorie (International Table) = 4.1868 J, 1 kgf =
 // 9.80665 N, standard atmosphere = 101 325 Pa, conventional mmHg =
-// 133.322387415 Pa, T/K = t/°C + 273.15 = (t/°F + 459.67)/1.8 = (T/°R)/1.8)
+// 133.322387415 Pa, conventional mmH2O = 9.80665 Pa, torr = 101 325/760 Pa, T/K = t/°C + 273.15 = (t/°F + 459.67)/1.8 = (T/°R)/1.8)
 // and checked in the tests against NIST Special Publication 811 (2008),
 // Appendix B.
 package units

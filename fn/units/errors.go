@@ -28,9 +28,11 @@ var (
 	// ErrWrongDimension: the unit is known, but for another quantity
 	// ("300 °C" given for a pressure).
 	ErrWrongDimension = errors.New("unit of the wrong quantity")
-	// ErrNegativeAbsolute: an absolute pressure or temperature at or below
-	// zero, typed as such or reached from a gauge reading.
-	ErrNegativeAbsolute = errors.New("absolute value not above zero")
+	// ErrNegativeAbsolute: a temperature at or below absolute zero.
+	ErrNegativeAbsolute = errors.New("temperature not above absolute zero")
+	// ErrPressureNotPositive: an absolute pressure at or below zero, typed
+	// as such or reached from a gauge or vacuum reading.
+	ErrPressureNotPositive = errors.New("absolute pressure not above zero")
 	// ErrQualityRange: a vapour quality outside 0..1 (0 % to 100 %), which
 	// includes a bare number such as 85 that might have meant percent.
 	ErrQualityRange = errors.New("quality outside 0..1")

@@ -28,10 +28,10 @@ func ExampleParse_errors() {
 		fmt.Println(err)
 	}
 	// Output:
-	// p "300C": °C is a unit of temperature; p needs a unit of pressure: MPa, MPag, Pa, kPa, kPag, bar, barg, mbar, mbarg, psia, psig, atm, kgf/cm², kgf/cm²g, mmHg, inHg
+	// p "300C": °C is a unit of temperature; p needs a unit of pressure: MPa, MPag, Pa, kPa, kPag, bar, barg, mbar, mbarg, psia, psig, atm, kgf/cm², kgf/cm²g, mmHg, inHg, torr, ata, mmH2Oa, mmH2Og, inH2Oa, inH2Og, inHg vac, mmHg vac, kPa vac
 	// p "1,013.25 kPa": a comma is not read in numbers (thousands separator or decimal comma?): remove thousands separators and write decimals with a point, e.g. 1013.25
 	// x "85": quality must be a fraction from 0 to 1, or give % ("85 %")
-	// p "0.6 mPa": mPa is the millipascal; for megapascal write MPa; p needs a unit of pressure: MPa, MPag, Pa, kPa, kPag, bar, barg, mbar, mbarg, psia, psig, atm, kgf/cm², kgf/cm²g, mmHg, inHg
+	// p "0.6 mPa": mPa is the millipascal; for megapascal write MPa; p needs a unit of pressure: MPa, MPag, Pa, kPa, kPag, bar, barg, mbar, mbarg, psia, psig, atm, kgf/cm², kgf/cm²g, mmHg, inHg, torr, ata, mmH2Oa, mmH2Og, inH2Oa, inH2Og, inHg vac, mmHg vac, kPa vac
 }
 
 func ExampleOptions() {

@@ -121,6 +121,9 @@ func parseFast(text string, d Dim, opt *Options) (float64, *Unit, bool) {
 		if sep != nil && sep.Gauge != u.Gauge {
 			return 0, nil, false
 		}
+		if u.vacuum() && v < 0 {
+			return 0, nil, false
+		}
 	case sep != nil:
 		u = sep
 	default:
@@ -156,26 +159,41 @@ var pow10 = [...]float64{1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10,
 // recentUnits remembers, per quantity, the last few unit texts parseFast
 // found and their indexes: each column of a sheet or a batch gives the same
 // unit on every row, and comparing the text is cheaper than folding and
-// looking it up again. An entry is replaced whole, never changed, so
-// concurrent readers see one whole entry or another.
+// looking it up again. An entry's text and index are never changed, so
+// concurrent readers see one whole entry or another; its used mark is a
+// hint only.
 type recentUnit struct {
 	text string // a copy, so the caller's (maybe large) string is not kept alive
 	k    int
+	used atomic.Bool // hit since the marks were last cleared
 }
 
 // recentSlots is how many unit texts per quantity are remembered: enough
 // for the columns of one quantity that a sheet gives in different units.
 const recentSlots = 4
 
+// recentMisses is how many missed texts per quantity are remembered (see
+// recentMiss).
+const recentMisses = 2
+
+// recentAging is how many refused entries (no slot free or unused) clear
+// the used marks, so that units no longer read make room in the end.
+const recentAging = 64
+
 var (
 	recentUnits [numDims][recentSlots]atomic.Pointer[recentUnit]
-	// recentMiss holds a hash of the last text per quantity that missed:
-	// an entry is made (one allocation) only when the same text misses
-	// twice in a row, so text whose unit changes on every value costs a
-	// hash, not an allocation.
-	recentMiss [numDims]atomic.Uint64
-	// recentNext picks the slot the next entry replaces, in turn.
-	recentNext [numDims]atomic.Uint32
+	// recentMiss holds hashes of the last two texts per quantity that
+	// missed. An entry is made (one allocation) only when a text misses
+	// again while its hash is still here, and only into a slot that is
+	// free or whose entry was not hit since the marks were cleared. So
+	// two columns in two units (A, B, A, B, …) are both remembered from
+	// their second row on, while units that rotate through more texts
+	// than there are slots (six columns in six units) cannot push each
+	// other out on every row: they make at most a few entries each time
+	// the marks are cleared, once per recentAging refusals.
+	recentMiss     [numDims][recentMisses]atomic.Uint64
+	recentMissNext [numDims]atomic.Uint32 // picks the hash the next miss replaces, in turn
+	recentRefused  [numDims]atomic.Uint32 // entries refused, for the aging
 )
 
 // findRecent is find for parseFast, through recentUnits. Only texts that
@@ -184,16 +202,41 @@ func findRecent(text string, d Dim) (int, bool) {
 	slots := &recentUnits[d]
 	for j := range slots {
 		if r := slots[j].Load(); r != nil && r.text == text {
+			if !r.used.Load() {
+				r.used.Store(true)
+			}
 			return r.k, true
 		}
 	}
 	k, _, ok := find(text, d)
-	if ok && len(text) <= maxKey {
-		if h := textHash(text); recentMiss[d].Swap(h) == h {
-			j := recentNext[d].Add(1) % recentSlots
-			slots[j].Store(&recentUnit{text: strings.Clone(text), k: k})
-		}
+	if !ok || len(text) > maxKey {
+		return k, ok
 	}
+	h := textHash(text)
+	misses := &recentMiss[d]
+	for j := range misses {
+		if misses[j].Load() != h {
+			continue
+		}
+		for v := range slots {
+			if r := slots[v].Load(); r == nil || !r.used.Load() {
+				misses[j].Store(0)
+				e := &recentUnit{text: strings.Clone(text), k: k}
+				e.used.Store(true)
+				slots[v].Store(e)
+				return k, ok
+			}
+		}
+		if recentRefused[d].Add(1)%recentAging == 0 {
+			for v := range slots {
+				if r := slots[v].Load(); r != nil {
+					r.used.Store(false)
+				}
+			}
+		}
+		return k, ok
+	}
+	misses[recentMissNext[d].Add(1)%recentMisses].Store(h)
 	return k, ok
 }
 

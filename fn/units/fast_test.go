@@ -2,6 +2,7 @@ package units
 
 import (
 	"math"
+	"runtime"
 	"testing"
 )
 
@@ -107,5 +108,109 @@ func TestFindRecentMatchesFind(t *testing.T) {
 	}
 	for range 4 {
 		<-done
+	}
+}
+
+// TestRecentUnitsAlternate: two columns of one quantity in two units, read
+// row by row (A, B, A, B, …), are both remembered, and reading them then
+// allocates nothing. The cache used to make an entry only for a text that
+// missed twice in a row, which alternating units never do.
+func TestRecentUnitsAlternate(t *testing.T) {
+	reset := func() {
+		for j := range recentUnits[Pressure] {
+			recentUnits[Pressure][j].Store(nil)
+		}
+		for j := range recentMiss[Pressure] {
+			recentMiss[Pressure][j].Store(0)
+		}
+	}
+	slotsUsed := func() (n int) {
+		for j := range recentUnits[Pressure] {
+			if recentUnits[Pressure][j].Load() != nil {
+				n++
+			}
+		}
+		return n
+	}
+	reset()
+	rows := []string{"6 barg", "600 kPag"}
+	parse := func() {
+		for _, text := range rows {
+			if _, err := Parse(text, Pressure, Options{}); err != nil {
+				t.Fatal(err)
+			}
+		}
+	}
+	remembered := func(unit string) bool {
+		for j := range recentUnits[Pressure] {
+			if r := recentUnits[Pressure][j].Load(); r != nil && r.text == unit {
+				return true
+			}
+		}
+		return false
+	}
+	parse()
+	parse()
+	for _, unit := range []string{"barg", "kPag"} {
+		if !remembered(unit) {
+			t.Errorf("unit %q not remembered after two rows of %q", unit, rows)
+		}
+	}
+	if n := testing.AllocsPerRun(1000, parse); n != 0 {
+		t.Errorf("reading two alternating units allocates %g times a row pair, want 0", n)
+	}
+	// Six units in turn overflow the cache; their misses must not make
+	// entries that push each other out on every round, whether the slots
+	// are empty or full with four of them. Bound: the aging frees the
+	// slots once per recentAging refused entries, and at most recentSlots
+	// entries (two allocations each) are made each time.
+	four := func() { // fills the slots with four of the six
+		reset()
+		for _, pair := range [][]string{{"1 bar", "1 psia"}, {"1 kPa", "1 MPa"}} {
+			rows = pair
+			parse()
+			parse()
+		}
+	}
+	for i, six := range [][]string{
+		{"1 bar", "1 psia", "1 mbar", "1 kPa", "1 MPa", "1 atm"},
+		{"1 bar", "1 psia", "1 mbar", "1 kPa", "1 MPa", "1 atm"},
+	} {
+		if i == 0 {
+			reset()
+		} else {
+			four()
+			if n := slotsUsed(); n != recentSlots {
+				t.Fatalf("%d slots filled, want %d", n, recentSlots)
+			}
+		}
+		rows = six
+		const rounds = 640
+		var before, after runtime.MemStats
+		runtime.ReadMemStats(&before)
+		for range rounds {
+			parse()
+		}
+		runtime.ReadMemStats(&after)
+		limit := uint64(2 * recentSlots * (2*rounds/recentAging + 1))
+		t.Logf("six rotating units, %d slots full at the end: %d allocations in %d rounds (limit %d)", slotsUsed(), after.Mallocs-before.Mallocs, rounds, limit)
+		if n := after.Mallocs - before.Mallocs; n > limit {
+			t.Errorf("reading six rotating units %q %d times allocates %d times, want at most %d", six, rounds, n, limit)
+		}
+	}
+	// Units no longer read make room: with the slots full of four other
+	// units, two alternating units are remembered once the marks age.
+	four()
+	rows = []string{"6 barg", "600 kPag"}
+	for range recentAging + 1 {
+		parse()
+	}
+	for _, unit := range []string{"barg", "kPag"} {
+		if !remembered(unit) {
+			t.Errorf("unit %q not remembered after %d rows with the slots full of units no longer read", unit, recentAging+1)
+		}
+	}
+	if n := testing.AllocsPerRun(1000, parse); n != 0 {
+		t.Errorf("two alternating units after four others allocate %g times a row pair, want 0", n)
 	}
 }

@@ -117,6 +117,10 @@ func parseFull(text string, d Dim, opt *Options) (float64, *Unit, error) {
 		u = &units[opt.Set.index(d)]
 	}
 
+	if u.vacuum() && v < 0 {
+		return 0, nil, &InputError{Name: opt.Name, Text: text, Dim: d, Err: ErrAmbiguousNumber,
+			Detail: fmt.Sprintf("a vacuum reading counts down from the atmosphere and is not negative; for %g above the atmosphere write a gauge unit, e.g. %g kPag", -v, -v)}
+	}
 	patm := opt.Patm
 	if patm != 0 && !(patm >= MinPatm && patm <= MaxPatm) {
 		return 0, nil, &InputError{Name: "patm", Text: strconv.FormatFloat(patm, 'g', -1, 64), Dim: Pressure, Err: ErrBadPatm,
@@ -165,6 +169,9 @@ func separateUnit(opt *Options, d Dim) (*Unit, error) {
 }
 
 func gaugeWord(u *Unit) string {
+	if u.vacuum() {
+		return "vacuum"
+	}
 	if u.Gauge {
 		return "gauge"
 	}
@@ -172,7 +179,7 @@ func gaugeWord(u *Unit) string {
 }
 
 func pressureError(opt *Options, text string, v float64, u *Unit, patm, b float64) *InputError {
-	e := &InputError{Name: opt.Name, Text: text, Dim: Pressure, Err: ErrNegativeAbsolute}
+	e := &InputError{Name: opt.Name, Text: text, Dim: Pressure, Err: ErrPressureNotPositive}
 	if u.Gauge {
 		if patm == 0 {
 			patm = StandardAtmosphere

@@ -61,6 +61,10 @@ func (u Unit) FromBase(b, patm float64) float64 {
 	return b*u.div/u.mul - u.shift
 }
 
+// vacuum reports whether u is a vacuum reading, counted down from the
+// atmosphere (its slope is negative).
+func (u Unit) vacuum() bool { return u.mul < 0 }
+
 // String returns u.Name.
 func (u Unit) String() string { return u.Name }
 
@@ -74,6 +78,7 @@ const (
 	calorieJ             = 4.1868        // calorie (International Table), J (exact)
 	gravityMS2           = 9.80665       // standard acceleration of gravity, m/s² (exact); 1 kgf = 9.80665 N
 	mmHgPa               = 133.322387415 // millimetre of mercury, conventional, Pa (exact: 13.5951 g/cm³ × g_n × 1 mm)
+	mmH2OPa              = gravityMS2    // millimetre of water, conventional, Pa (exact: 1 g/cm³ × g_n × 1 mm)
 	hourS                = 3600          // hour, s
 	rankinePerK          = 1.8           // size of a kelvin in degrees Rankine or Fahrenheit (exact)
 	zeroCelsiusK         = 273.15        // 0 °C in K (exact)
@@ -84,6 +89,8 @@ const (
 // Factors derived from the definitions above.
 const (
 	psiPa       = poundKg * gravityMS2 / (inchM * inchM) // pound-force per square inch, Pa
+	torrPa      = standardAtmospherePa / 760.0           // torr, Pa (exact: 1/760 of the standard atmosphere)
+	ataPa       = gravityMS2 * 1e4                       // technical atmosphere (1 kgf/cm²), Pa
 	btuPerLbJkg = btuJ / poundKg                         // Btu/lb, J/kg (= 2326 exactly)
 )
 
@@ -95,6 +102,22 @@ type unitSpec struct {
 	shift     float64
 	gauge     bool
 	spellings []string
+	// refuse, when set, makes the spellings known only to be refused
+	// with this message: text that could mean two units.
+	refuse string
+}
+
+// refused returns a row of spellings that are refused with detail.
+func refused(detail string, spellings ...string) unitSpec {
+	return unitSpec{refuse: detail, spellings: spellings}
+}
+
+// vacuum returns a vacuum reading of a unit of mul/div MPa: a value
+// counted down from the atmosphere, so p = patm − v·mul/div. It is a
+// gauge unit with a negative slope, so that it is relative to
+// Options.Patm like any gauge reading.
+func vacuum(name string, mul, div float64, spellings ...string) unitSpec {
+	return unitSpec{name: name, mul: -mul, div: div, gauge: true, spellings: spellings}
 }
 
 // pressureFamily returns an absolute pressure unit and, if gaugeName is not
@@ -116,6 +139,15 @@ func pressureFamily(name, gaugeName string, mul, div float64, roots ...string) [
 		g.spellings = append(g.spellings, s+"g", s+"gauge", s+"gage")
 	}
 	return []unitSpec{abs, g}
+}
+
+// markedFamily is pressureFamily for a unit that must carry its mark: the
+// roots alone are not spellings (see the refused rows of unitTable), only
+// the roots with "a", "abs", "g", "gauge" or "gage".
+func markedFamily(name, gaugeName string, mul, div float64, roots ...string) []unitSpec {
+	f := pressureFamily(name, gaugeName, mul, div, roots...)
+	f[0].spellings = f[0].spellings[len(roots):]
+	return f
 }
 
 func join(groups ...[]unitSpec) []unitSpec {
@@ -141,6 +173,21 @@ var unitTable = [numDims][]unitSpec{
 		pressureFamily("kgf/cm²", "kgf/cm²g", gravityMS2*1e4, 1e6, "kgf/cm²", "kg/cm²"),
 		pressureFamily("mmHg", "", mmHgPa, 1e6),
 		pressureFamily("inHg", "", mmHgPa*25.4, 1e6), // conventional: 25.4 mm of conventional mercury
+		pressureFamily("torr", "", torrPa, 1e6),
+		pressureFamily("ata", "", ataPa, 1e6, "ata", "at abs"),
+		// Water columns: the trade reads them as gauge (draft, level,
+		// filter loss) or as absolute; unmarked they are refused.
+		markedFamily("mmH2Oa", "mmH2Og", mmH2OPa, 1e6, "mmH2O", "mmWC"),
+		markedFamily("inH2Oa", "inH2Og", mmH2OPa*25.4, 1e6, "inH2O", "inWC"),
+		[]unitSpec{
+			vacuum("inHg vac", mmHgPa*25.4, 1e6, "inHg vacuum", "inHgV"),
+			vacuum("mmHg vac", mmHgPa, 1e6, "mmHg vacuum"),
+			vacuum("kPa vac", 1, 1e3, "kPa vacuum"),
+			refused("a water column needs its mark: write mmH2Og (gauge, against patm) or mmH2Oa (absolute)", "mmH2O", "mmWC", "mm w.c."),
+			refused("a water column needs its mark: write inH2Og (gauge, against patm) or inH2Oa (absolute)", "inH2O", "inWC", "in w.c.", "\"WC", "\"H2O"),
+			refused("at alone may be gauge or absolute: write ata for the technical atmosphere absolute, or kgf/cm²g for gauge", "at", "atu"),
+			refused("vac needs a unit: write inHg vac, mmHg vac or kPa vac, or give the absolute pressure", "vac", "vacuum"),
+		},
 	),
 	Temperature: { // base K
 		{name: "K", spellings: []string{"kelvin"}},
@@ -151,6 +198,7 @@ var unitTable = [numDims][]unitSpec{
 	SpecificEnergy: { // base kJ/kg
 		{name: "kJ/kg", spellings: []string{"J/g"}},
 		{name: "J/kg", div: 1e3},
+		{name: "MJ/kg", mul: 1e3, spellings: []string{"kJ/g"}},
 		{name: "Btu/lb", mul: btuPerLbJkg, div: 1e3},
 		{name: "kcal/kg", mul: calorieJ, spellings: []string{"cal/g"}},
 	},
@@ -247,6 +295,9 @@ var caseTraps = [numDims][]caseTrap{
 		{"mPa", "mPa is the millipascal; for megapascal write MPa"},
 		{"Mbar", "Mbar is the megabar; for millibar write mbar"},
 	},
+	SpecificEnergy: {
+		{"mJ", "mJ/kg is the millijoule per kilogram; for megajoule write MJ/kg"},
+	},
 	DynamicViscosity: {
 		{"MPa", "MPa·s is the megapascal second; for millipascal second write mPa·s"},
 	},
@@ -281,9 +332,10 @@ var trapStart = func() (s [numDims][4]uint64) {
 }()
 
 type dimUnits struct {
-	units []Unit
-	keys  keyTable // folded spelling -> index in units
-	names []string // canonical names, for messages
+	units   []Unit
+	keys    keyTable          // folded spelling -> index in units
+	names   []string          // canonical names, for messages
+	refused map[string]string // folded spelling -> why it is refused
 }
 
 // registry holds the units of each quantity, built once from unitTable.
@@ -295,7 +347,24 @@ func buildRegistry() [numDims]dimUnits {
 	for d := Pressure; d <= Dimensionless; d++ {
 		r := &reg[d]
 		byKey := make(map[string]uint8)
-		for i, s := range unitTable[d] {
+		r.refused = make(map[string]string)
+		for _, s := range unitTable[d] {
+			if s.refuse == "" {
+				continue
+			}
+			for _, sp := range s.spellings {
+				n, _, ok := foldKey(&buf, sp)
+				if !ok {
+					panic(fmt.Sprintf("units: refused spelling %q of %s cannot be folded", sp, d))
+				}
+				r.refused[string(buf[:n])] = s.refuse
+			}
+		}
+		for _, s := range unitTable[d] {
+			if s.refuse != "" {
+				continue
+			}
+			i := len(r.units)
 			u := Unit{Name: s.name, Dim: d, Gauge: s.gauge, mul: s.mul, div: s.div, shift: s.shift}
 			if u.mul == 0 {
 				u.mul = 1
@@ -318,6 +387,9 @@ func buildRegistry() [numDims]dimUnits {
 				}
 				if j, dup := byKey[k]; dup && int(j) != i {
 					panic(fmt.Sprintf("units: %s spelling %q of %q folds like one of %q", d, sp, s.name, r.units[j].Name))
+				}
+				if _, dup := r.refused[k]; dup {
+					panic(fmt.Sprintf("units: %s spelling %q of %q is also refused", d, sp, s.name))
 				}
 				byKey[k] = uint8(i)
 			}
@@ -530,7 +602,7 @@ func find(text string, d Dim) (i int, trap string, ok bool) {
 	}
 	i, ok = registry[d].keys.get(&buf, n, lo)
 	if !ok {
-		return 0, "", false
+		return 0, registry[d].refused[string(buf[:n])], false
 	}
 	if text == "" {
 		return i, "", true

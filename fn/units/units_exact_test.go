@@ -32,6 +32,9 @@ var (
 	exCalorie = unit.New(4.1868, unit.Dimensions{unit.MassDim: 1, unit.LengthDim: 2, unit.TimeDim: -2})         // calorie (IT), exact
 	exMmHg    = unit.New(133.322387415, unit.Dimensions{unit.MassDim: 1, unit.LengthDim: -1, unit.TimeDim: -2}) // conventional mmHg, exact
 	exAtm     = unit.New(101325, unit.Dimensions{unit.MassDim: 1, unit.LengthDim: -1, unit.TimeDim: -2})        // standard atmosphere, exact
+	// Conventional water of the water-column units, 1 g/cm³ (NIST SP 811
+	// (2008), B.8, footnote to "millimeter of water, conventional").
+	exWaterDensity = unit.New(1000, unit.Dimensions{unit.MassDim: 1, unit.LengthDim: -3})
 )
 
 // mul and div combine quantities without changing their arguments.
@@ -106,7 +109,13 @@ func TestExactDefinitions(t *testing.T) {
 		{"kgf/cm²", units.Pressure, div(mul(unit.New(1, unit.Dimensions{unit.MassDim: 1}), exGravity), scaled(1e-4, mul(exMetre, exMetre)))},
 		{"atm", units.Pressure, exAtm},
 		{"mmHg", units.Pressure, exMmHg},
-		{"inHg", units.Pressure, scaled(25.4, exMmHg)}, // 1 in = 25.4 mm
+		{"inHg", units.Pressure, scaled(25.4, exMmHg)},      // 1 in = 25.4 mm
+		{"inHg vac", units.Pressure, scaled(-25.4, exMmHg)}, // counted down from patm
+		{"mmHg vac", units.Pressure, scaled(-1, exMmHg)},
+		{"torr", units.Pressure, scaled(1.0/760, exAtm)}, // 1 torr = 1/760 atm
+		{"ata", units.Pressure, div(mul(unit.New(1, unit.Dimensions{unit.MassDim: 1}), exGravity), scaled(1e-4, mul(exMetre, exMetre)))},
+		{"mmH2Oa", units.Pressure, mul(exWaterDensity, exGravity, scaled(1e-3, exMetre))}, // conventional: 1 g/cm³ × g_n × 1 mm
+		{"inH2Og", units.Pressure, mul(exWaterDensity, exGravity, exInch)},
 		{"Btu/lb", units.SpecificEnergy, div(exBtu, exPound)},
 		{"kcal/kg", units.SpecificEnergy, div(scaled(1e3, exCalorie), exKilogram)},
 		{"Btu/(lb·°R)", units.SpecificEntropy, div(exBtu, exPound, exRankine)},

@@ -1,6 +1,7 @@
 package units_test
 
 import (
+	"errors"
 	"math"
 	"strconv"
 	"strings"
@@ -85,6 +86,16 @@ func TestNISTFactors(t *testing.T) {
 		{"mmHg", units.Pressure, "1.333 224 E+02", false, 1e-6, false, "millimeter of mercury, conventional"},
 		// NIST SP 811 (2008), B.8: inch of mercury, conventional (inHg) -> Pa 3.386 389 E+03
 		{"inHg", units.Pressure, "3.386 389 E+03", false, 1e-6, false, "inch of mercury, conventional"},
+		// NIST SP 811 (2008), B.8: torr (Torr) -> Pa 1.333 224 E+02
+		{"torr", units.Pressure, "1.333 224 E+02", false, 1e-6, false, "torr"},
+		// NIST SP 811 (2008), B.8: atmosphere, technical (at) -> Pa 9.806 65 E+04 (exact)
+		{"ata", units.Pressure, "9.806 65 E+04", true, 1e-6, false, "atmosphere, technical"},
+		// NIST SP 811 (2008), B.8: millimeter of water, conventional (mmH2O) -> Pa 9.806 65 E+00 (exact)
+		{"mmH2Oa", units.Pressure, "9.806 65 E+00", true, 1e-6, false, "millimeter of water, conventional"},
+		{"mmH2Og", units.Pressure, "9.806 65 E+00", true, 1e-6, false, "millimeter of water, conventional (gauge slope)"},
+		// NIST SP 811 (2008), B.8: inch of water, conventional (inH2O) -> Pa 2.490 889 E+02
+		{"inH2Oa", units.Pressure, "2.490 889 E+02", false, 1e-6, false, "inch of water, conventional"},
+		{"inH2Og", units.Pressure, "2.490 889 E+02", false, 1e-6, false, "inch of water, conventional (gauge slope)"},
 		// NIST SP 811 (2008), B.8: pound-force per square inch (psi) -> Pa 6.894 757 E+03, reciprocal
 		{"1/psi", units.InversePressure, "6.894 757 E+03", false, 1e-6, true, "pound-force per square inch"},
 		// NIST SP 811 (2008), B.8: bar -> Pa 1.0 E+05 (exact), reciprocal
@@ -175,6 +186,7 @@ func TestSIMultiples(t *testing.T) {
 		{"MPag", units.Pressure, 1},
 		{"mbarg", units.Pressure, 1e-4},
 		{"J/kg", units.SpecificEnergy, 1e-3},
+		{"MJ/kg", units.SpecificEnergy, 1e3},
 		{"kJ/kg", units.SpecificEnergy, 1},
 		{"J/(kg·K)", units.SpecificEntropy, 1e-3},
 		{"cm³/g", units.SpecificVolume, 1e-3},
@@ -233,6 +245,96 @@ func TestTemperaturePoints(t *testing.T) {
 		}
 		if !scalar.EqualWithinRel(got, tc.want, 1e-12) {
 			t.Errorf("Parse(%q) = %.15g K, want %.15g K", tc.text, got, tc.want)
+		}
+	}
+}
+
+// TestVacuumReadings: a vacuum reading counts down from the atmosphere of
+// patm, p = patm − v. Sizes from NIST SP 811 (2008), B.8: inch of mercury,
+// conventional (inHg) 3.386 389 E+03 Pa; millimeter of mercury,
+// conventional (mmHg) 1.333 224 E+02 Pa; kPa exact. Tolerance: half a unit
+// in the last digit SP 811 prints, on the reading's part of p.
+func TestVacuumReadings(t *testing.T) {
+	for _, tc := range []struct {
+		text   string
+		patm   float64 // MPa; 0: the standard atmosphere
+		v      float64 // the reading, in its unit
+		factor string  // the unit to Pa, as printed in SP 811
+		exact  bool
+	}{
+		{"28 inHg vac", 0, 28, "3.386 389 E+03", false},
+		{"24 inHg vacuum", 0.0899, 24, "3.386 389 E+03", false},
+		{"710 mmHg vac", 0, 710, "1.333 224 E+02", false},
+		{"80 kPa vac", 0, 80, "1.0 E+03", true},
+		{"80kPa vac", 0.095, 80, "1.0 E+03", true},
+		{"0 kPa vac", 0, 0, "1.0 E+03", true},
+	} {
+		f, tol := nistFactor(t, tc.factor, tc.exact)
+		patm := tc.patm
+		if patm == 0 {
+			patm = units.StandardAtmosphere
+		}
+		reading := tc.v * f * 1e-6
+		got, u, err := units.ParseUnit(tc.text, units.Pressure, units.Options{Name: "p", Patm: tc.patm})
+		if err != nil {
+			t.Errorf("Parse(%q, patm %g): %v", tc.text, tc.patm, err)
+			continue
+		}
+		if !u.Gauge || !scalar.EqualWithinAbs(got, patm-reading, tol*reading+1e-15) {
+			t.Errorf("Parse(%q, patm %g) = %.10g MPa (%s, gauge %v), want patm − %.10g = %.10g MPa",
+				tc.text, tc.patm, got, u.Name, u.Gauge, reading, patm-reading)
+		}
+		if back := u.FromBase(got, tc.patm); !scalar.EqualWithinAbsOrRel(back, tc.v, 1e-9, 1e-12) {
+			t.Errorf("%s: FromBase gives %.12g, want %g", tc.text, back, tc.v)
+		}
+	}
+}
+
+// TestAmbiguousUnits: text that names a unit without saying whether it is
+// gauge or absolute, or a prefix by case alone, is refused with a message
+// that says what to write (common practice, no source: water columns are
+// read both as gauge draft and as absolute, "at" both ways).
+func TestAmbiguousUnits(t *testing.T) {
+	for _, tc := range []struct {
+		text string
+		dim  units.Dim
+		kind error
+		want string
+	}{
+		{"25 mmH2O", units.Pressure, units.ErrUnknownUnit, "mmH2Og"},
+		{"25 mm w.c.", units.Pressure, units.ErrUnknownUnit, "mmH2Oa"},
+		{"4 inH2O", units.Pressure, units.ErrUnknownUnit, "inH2Og"},
+		{"4 inWC", units.Pressure, units.ErrUnknownUnit, "inH2Oa"},
+		{"1.2 at", units.Pressure, units.ErrUnknownUnit, "ata"},
+		{"28 vac", units.Pressure, units.ErrUnknownUnit, "inHg vac"},
+		{"-5 kPa vac", units.Pressure, units.ErrAmbiguousNumber, "kPag"},
+		{"31 inHg vac", units.Pressure, units.ErrPressureNotPositive, "above 0"},
+		{"2.8 mJ/kg", units.SpecificEnergy, units.ErrUnknownUnit, "MJ/kg"},
+		{"-1 bar", units.Pressure, units.ErrPressureNotPositive, "absolute"},
+	} {
+		_, err := units.Parse(tc.text, tc.dim, units.Options{Name: "p"})
+		if !errors.Is(err, tc.kind) || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("Parse(%q, %s) = %v, want %v mentioning %q", tc.text, tc.dim, err, tc.kind, tc.want)
+		}
+	}
+	// Marked forms are read, and the marks mean what they say.
+	for _, tc := range []struct {
+		text string
+		want float64 // MPa
+	}{
+		// NIST SP 811 (2008), B.8: millimeter of water, conventional = 9.806 65 Pa (exact)
+		{"250 mmH2Og", units.StandardAtmosphere + 250*9.80665e-6},
+		{"250 mmH2O(a)", 250 * 9.80665e-6},
+		// NIST SP 811 (2008), B.8: inch of water, conventional = 2.490 889 E+02 Pa
+		{"4 inWC(g)", units.StandardAtmosphere + 4*249.0889e-6},
+		// NIST SP 811 (2008), B.8: atmosphere, technical = 9.806 65 E+04 Pa (exact)
+		{"1.2 ata", 1.2 * 0.0980665},
+		// NIST SP 811 (2008), B.8: torr = 1.333 224 E+02 Pa
+		{"750 Torr", 750 * 133.3224e-6},
+	} {
+		got, err := units.Parse(tc.text, units.Pressure, units.Options{})
+		if err != nil || !scalar.EqualWithinRel(got, tc.want, 5e-7) {
+			t.Errorf("Parse(%q) = %.10g, %v; want %.10g MPa", tc.text, got, err, tc.want)
 		}
 	}
 }
