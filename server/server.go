@@ -115,6 +115,8 @@ func (s *Server) routes() *gin.Engine {
 	r.GET("/state", s.getState)
 	r.GET("/state/:property", s.getStateProperty)
 	r.GET("/saturation", s.getSaturation)
+	r.GET("/process/:kind", s.getProcess)
+	r.GET("/process/:kind/:result", s.getProcessResult)
 	r.POST("/batch", s.postBatch)
 	r.POST("/workbook", s.postWorkbook)
 	r.GET("/openapi.json", s.getOpenAPI)
@@ -154,6 +156,9 @@ var routeNames = map[string]string{
 	"/openapi.json":    "/openapi.json",
 	"/healthz":         "/healthz",
 	"/metrics":         "/metrics",
+
+	"/process/:kind":         "/process/{kind}",
+	"/process/:kind/:result": "/process/{kind}/{result}",
 }
 
 // routeOf names the route of a request; "unmatched" for no route, so that
@@ -167,7 +172,7 @@ func routeOf(c *gin.Context) string {
 
 // noRoute answers a path that is no route.
 func (s *Server) noRoute(c *gin.Context) {
-	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
+	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, GET /process/{kind}, GET /process/{kind}/{result}, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
 }
 
 // noMethod answers a route asked with the wrong method.

@@ -16,21 +16,36 @@ import (
 //
 // GET /state
 func (s *Server) getState(c *gin.Context) {
-	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs|takesGet|takesFormat)
+	raw := c.Request.URL.RawQuery
+	var uq uncertaintyQuery
+	if mayCarryUncertainty(raw) {
+		var err error
+		if uq, err = readUncertainty(raw, false); err != nil {
+			s.fail(c, err)
+			return
+		}
+		raw = uq.rest
+	}
+	req, err := s.readRequest(raw, takesInputs|takesGet|takesFormat)
 	if err != nil {
 		s.fail(c, err)
 		return
 	}
-	st, in, err := point.Solve(req.given, req.opt)
+	m, err := point.SolveMeasured(req.given, req.opt, uq.uo)
 	if err != nil {
 		s.fail(c, err)
 		return
 	}
+	st, in := &m.State.State, m.Inputs
 	syms := req.syms
 	if syms == nil {
 		syms = point.DefaultSymbols()
 	}
-	ans := point.Render(&st, syms, req.opt)
+	ans := point.Render(st, syms, req.opt)
+	if m.Given {
+		s.writeMeasured(c, &m, &ans, syms, req, uq.uo)
+		return
+	}
 	if req.format == "csv" {
 		writeBody(c, http.StatusOK, csvType, appendAnswerCSV(nil, &ans, syms, req.opt.Set))
 		return

@@ -117,7 +117,8 @@ type Measured struct {
 
 // SolveMeasured reads two given inputs, each of which may carry "±u", and
 // solves the state with the sensitivities of its properties. Without any
-// ± it is Solve with a zero budget (Given false).
+// ± it is Solve: State.State is the state, with no sensitivities and an
+// empty budget (Given false).
 func SolveMeasured(given []Given, opt Options, uo UOptions) (Measured, error) {
 	plain := make([]Given, len(given))
 	uncs := make([]string, len(given))
@@ -131,6 +132,9 @@ func SolveMeasured(given []Given, opt Options, uo UOptions) (Measured, error) {
 	st, in, err := Solve(plain, opt)
 	if err != nil {
 		return Measured{}, err
+	}
+	if !any {
+		return Measured{State: uncertain.State{State: st}, Budget: &uncertain.Budget{}, Inputs: in}, nil
 	}
 	_, us, _ := read(plain, opt)
 	m := Measured{Budget: &uncertain.Budget{}, Inputs: in, Given: any}

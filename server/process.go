@@ -1,0 +1,168 @@
+package server
+
+import (
+	"net/http"
+	"net/url"
+	"strings"
+
+	"github.com/gin-gonic/gin"
+
+	"steamcell/fn/point"
+	"steamcell/fn/process"
+)
+
+// uncertaintyQuery is what a query says about uncertainties, with the
+// rest of the query for readRequest.
+type uncertaintyQuery struct {
+	rest   string // the query without the parameters below
+	uo     point.UOptions
+	inputs []point.Given // process inputs (p1, t1, m2, …), when asked for
+}
+
+// plusMinusEscapes are the spellings of "+-" and "+/-" in a raw query,
+// where "+" would decode to a space; they are read as ± (U+00B1).
+var plusMinusEscapes = strings.NewReplacer("+-", "%C2%B1", "+/-", "%C2%B1", "+%2F-", "%C2%B1", "+%2f-", "%C2%B1")
+
+// readUncertainty takes convention= and k= (and, with processInputs, the
+// numbered process inputs) out of a raw query, reading "+-" as ±.
+func readUncertainty(raw string, processInputs bool) (uncertaintyQuery, error) {
+	var q uncertaintyQuery
+	params, err := parseQuery(plusMinusEscapes.Replace(raw))
+	if err != nil {
+		return q, err
+	}
+	var rest []string
+	for _, p := range params {
+		switch {
+		case p.key == "convention":
+			if q.uo.Convention, err = point.ParseConvention(p.value); err != nil {
+				return q, err
+			}
+		case p.key == "k":
+			if q.uo.K, err = point.ParseK(p.value); err != nil {
+				return q, err
+			}
+		case processInputs && isProcessInput(p.key):
+			q.inputs = append(q.inputs, point.Given{Name: p.name, Text: p.value})
+		default:
+			rest = append(rest, url.QueryEscape(p.name)+"="+url.QueryEscape(p.value))
+		}
+	}
+	q.rest = strings.Join(rest, "&")
+	return q, nil
+}
+
+// mayCarryUncertainty reports whether a raw query may hold a ± or an
+// uncertainty option, so that /state reads it twice only then.
+func mayCarryUncertainty(raw string) bool {
+	l := strings.ToLower(raw)
+	return strings.Contains(l, "%c2%b1") || strings.Contains(raw, "±") || strings.Contains(raw, "+-") ||
+		strings.Contains(raw, "+/-") || strings.Contains(l, "+%2f-") || strings.Contains(l, "convention=") ||
+		strings.HasPrefix(l, "k=") || strings.Contains(l, "&k=")
+}
+
+func isProcessInput(key string) bool {
+	_, _, ok := process.ParseName(key)
+	return ok
+}
+
+// getProcess answers the results of a process between numbered states,
+// each with its standard uncertainty (and U = k·u with k=), as one JSON
+// object, or with format=csv as a header line and a value line.
+//
+// GET /process/{kind}
+func (s *Server) getProcess(c *gin.Context) {
+	ans, format, err := s.runProcess(c)
+	if err != nil {
+		s.fail(c, err)
+		return
+	}
+	if format == "csv" {
+		b := appendCSVRow(nil, ans.Header(), ',')
+		writeBody(c, http.StatusOK, csvType, appendCSVRow(b, ans.Cells(), ','))
+		return
+	}
+	writeBody(c, http.StatusOK, jsonType, append(ans.AppendJSON(nil, Caution), '\n'))
+}
+
+// getProcessResult answers one result of a process as a bare number in
+// text/plain, for a spreadsheet cell: /process/expansion/efficiency, or
+// its standard uncertainty as /process/expansion/u(efficiency) and, with
+// k=, its expanded uncertainty as U(efficiency).
+//
+// GET /process/{kind}/{result}
+func (s *Server) getProcessResult(c *gin.Context) {
+	ans, _, err := s.runProcess(c)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	name := c.Param("result")
+	which := ""
+	if len(name) > 3 && (name[0] == 'u' || name[0] == 'U') && name[1] == '(' && name[len(name)-1] == ')' {
+		which, name = name[:1], name[2:len(name)-1]
+	}
+	r, err := ans.Result(name)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	if which == "U" && ans.UOpt.K == 0 {
+		s.failText(c, errorf(ErrBadQuery, "k", "U(%s) is the expanded uncertainty: give its coverage factor, e.g. k=2", clean(name, 40)))
+		return
+	}
+	if len(ans.Warnings) > 0 {
+		c.Header("Steamcell-Warning", headerText(strings.Join(ans.Warnings, "; ")))
+	}
+	v := r.Value
+	switch which {
+	case "u":
+		v = r.U
+	case "U":
+		v = ans.UOpt.K * r.U
+	}
+	writeBody(c, http.StatusOK, textType, appendNumber(nil, v))
+}
+
+// runProcess reads a process request, runs it and returns the answer and
+// the format asked for.
+func (s *Server) runProcess(c *gin.Context) (point.ProcessAnswer, string, error) {
+	kind := c.Param("kind")
+	if _, err := process.LookupKind(kind); err != nil {
+		return point.ProcessAnswer{}, "", err
+	}
+	uq, err := readUncertainty(c.Request.URL.RawQuery, true)
+	if err != nil {
+		return point.ProcessAnswer{}, "", err
+	}
+	req, err := s.readRequest(uq.rest, takesFormat)
+	if err != nil {
+		return point.ProcessAnswer{}, "", err
+	}
+	ans, err := point.RunProcess(kind, uq.inputs, req.opt, uq.uo)
+	return ans, req.format, err
+}
+
+// writeMeasured renders a state whose inputs carried uncertainties: JSON
+// with the "u" (and "U") members, or CSV with a u(SYM) column after the
+// answer's columns for each property that has one.
+func (s *Server) writeMeasured(c *gin.Context, m *point.Measured, ans *point.Answer, syms []string, req request, uo point.UOptions) {
+	unc := point.RenderUncertainty(m, ans, req.opt, uo)
+	if req.format == "csv" {
+		ans.Warnings = append(ans.Warnings, unc.Warnings...)
+		head := answerHeader(nil, syms, req.opt.Set)
+		cells := answerCells(nil, ans)
+		for _, sym := range unc.Order {
+			head = append(head, "u("+sym+")"+unitSuffix(fieldHeader(sym, req.opt.Set), sym))
+			cells = append(cells, string(appendNumber(nil, unc.U[sym])))
+		}
+		b := appendCSVRow(nil, head, ',')
+		writeBody(c, http.StatusOK, csvType, appendCSVRow(b, cells, ','))
+		return
+	}
+	b := ans.AppendMeasuredJSON(nil, point.Inputs(m.Inputs, req.opt), Caution, &unc)
+	writeBody(c, http.StatusOK, jsonType, append(b, '\n'))
+}
+
+// unitSuffix is the " [unit]" part of a field header "h [kJ/kg]".
+func unitSuffix(header, sym string) string { return strings.TrimPrefix(header, sym) }

@@ -1,0 +1,93 @@
+package server_test
+
+import (
+	"encoding/json"
+	"net/url"
+	"strconv"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/floats/scalar"
+
+	"steamcell/server"
+)
+
+// TestStateUncertainty: /state with ± inputs answers "u" for the numeric
+// properties in the value's units, "U" with k=2, the convention applied;
+// "+-" in a raw query is ±; a bad uncertainty is a 400.
+func TestStateUncertainty(t *testing.T) {
+	srv, _ := newServer(t, server.Config{})
+	w := get(srv, "/state?p="+url.QueryEscape("100bar±0.2bar")+"&t=500C+-0.5K&k=2")
+	if w.Code != 200 {
+		t.Fatalf("status %d: %s", w.Code, w.Body)
+	}
+	var a map[string]any
+	if err := json.Unmarshal(w.Body.Bytes(), &a); err != nil {
+		t.Fatal(err)
+	}
+	u := a["u"].(map[string]any)
+	// si: kPa and °C; u(p) = 0.2 bar = 20 kPa.
+	if got := u["p"].(float64); !scalar.EqualWithinRel(got, 20, 1e-12) {
+		t.Errorf("u(p) = %g kPa, want 20", got)
+	}
+	if got := a["U"].(map[string]any)["t"].(float64); !scalar.EqualWithinRel(got, 1, 1e-12) {
+		t.Errorf("U(t) = %g, want 1", got)
+	}
+	if _, ok := a["e"].(float64); !ok {
+		t.Errorf("no internal energy under e: %s", w.Body)
+	}
+	w = get(srv, "/state?p=100bar%C2%B10.4bar&t=500C%C2%B11K&convention=k2&format=csv")
+	if w.Code != 200 || !strings.Contains(w.Body.String(), "u(h) [kJ/kg]") {
+		t.Errorf("csv: %d %s", w.Code, w.Body)
+	}
+	for _, q := range []string{"p=100bar%C2%B1&t=500C", "p=100bar%C2%B1-1bar&t=500C", "p=1MPa&t=500C&convention=gauss", "p=1MPa&t=500C&k=0"} {
+		if w := get(srv, "/state?"+q); w.Code != 400 || !strings.Contains(w.Body.String(), "bad_uncertainty") {
+			t.Errorf("%s: %d %s", q, w.Code, w.Body)
+		}
+	}
+}
+
+// TestProcessRoutes: the JSON, CSV and plain-text forms of a process,
+// and its errors.
+func TestProcessRoutes(t *testing.T) {
+	srv, _ := newServer(t, server.Config{})
+	q := "p1=" + url.QueryEscape("60bar±0.3bar") + "&t1=480C%C2%B11K&p2=12bar%C2%B10.1bar&t2=280C%C2%B11K"
+	w := get(srv, "/process/expansion?"+q+"&k=2")
+	if w.Code != 200 {
+		t.Fatalf("status %d: %s", w.Code, w.Body)
+	}
+	var a map[string]any
+	if err := json.Unmarshal(w.Body.Bytes(), &a); err != nil {
+		t.Fatal(err)
+	}
+	eff := a["results"].(map[string]any)["efficiency"].(float64)
+	ueff := a["u"].(map[string]any)["efficiency"].(float64)
+	w = get(srv, "/process/expansion/efficiency?"+q)
+	if got, _ := strconv.ParseFloat(w.Body.String(), 64); w.Code != 200 || got != eff {
+		t.Errorf("/efficiency: %d %s, want %g", w.Code, w.Body, eff)
+	}
+	w = get(srv, "/process/expansion/u(efficiency)?"+q)
+	if got, _ := strconv.ParseFloat(w.Body.String(), 64); w.Code != 200 || got != ueff {
+		t.Errorf("/u(efficiency): %d %s, want %g", w.Code, w.Body, ueff)
+	}
+	w = get(srv, "/process/expansion?"+q+"&format=csv&units=us")
+	if w.Code != 200 || !strings.HasPrefix(w.Body.String(), "efficiency,u(efficiency),h2s [Btu/lb]") {
+		t.Errorf("csv: %d %s", w.Code, w.Body)
+	}
+	for _, tc := range []struct {
+		target, code string
+		status       int
+	}{
+		{"/process/turbine?p1=1MPa", "unknown_process", 404},
+		{"/process/expansion?p1=6MPa&t1=480C&p2=1.2MPa", "process_input", 400},
+		{"/process/throttling?p1=1MPa&p2=0.1MPa&t2=200C", "process_refused", 422},
+		{"/process/expansion?p1=6MPa&t1=480C&p2=1.2MPa&t2=280C&get=h", "unknown_parameter", 400},
+		{"/process/expansion/speed?p1=6MPa&t1=480C&p2=1.2MPa&t2=280C", "unknown_property", 400},
+		{"/process/expansion/U(efficiency)?p1=6MPa&t1=480C&p2=1.2MPa&t2=280C", "malformed_query", 400},
+	} {
+		w := get(srv, tc.target)
+		if w.Code != tc.status || !strings.Contains(w.Body.String(), tc.code) {
+			t.Errorf("%s: %d %s, want %d %s", tc.target, w.Code, w.Body, tc.status, tc.code)
+		}
+	}
+}
