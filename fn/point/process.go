@@ -325,3 +325,80 @@ func ParseConvention(text string) (uncertain.Convention, error) {
 	}
 	return c, err
 }
+
+// ProcessColumn is what a column header of a process table says: the
+// input it holds ("p1") and the unit of its bare numbers, and whether it
+// holds that input's uncertainty instead of its value.
+type ProcessColumn struct {
+	Input       string // "p1", "t2", "m1"; "" for a column that is no input (a tag, a time)
+	Unit        string
+	Uncertainty bool
+}
+
+// ProcessColumns reads the header row of a process table: "p1 [bar]",
+// "t1 (°C)", "m2", and beside them "u(p1) [bar]" (UncertaintyHeader).
+// Columns that name no process input are passed over (Input ""). An input
+// named twice, or an uncertainty column whose input has no column, is an
+// error.
+func ProcessColumns(headers []string) ([]ProcessColumn, error) {
+	cols := make([]ProcessColumn, len(headers))
+	seen := map[string]bool{}
+	for i, h := range headers {
+		if in, unit, ok := UncertaintyHeader(h); ok {
+			cols[i] = ProcessColumn{Input: strings.ToLower(in), Unit: unit, Uncertainty: true}
+			continue
+		}
+		name, unit := strings.TrimSpace(h), ""
+		if j := strings.IndexAny(name, "[("); j > 0 {
+			close := map[byte]byte{'[': ']', '(': ')'}[name[j]]
+			if k := strings.LastIndexByte(name, close); k > j {
+				unit = strings.TrimSpace(name[j+1 : k])
+			}
+			name = strings.TrimSpace(name[:j])
+		}
+		if _, _, ok := process.ParseName(name); !ok {
+			continue
+		}
+		name = strings.ToLower(name)
+		if seen[name] {
+			return nil, &Error{Param: h, Kind: ErrInputCount, Msg: fmt.Sprintf("%s has two columns; give each input one", name)}
+		}
+		seen[name] = true
+		cols[i] = ProcessColumn{Input: name, Unit: unit}
+	}
+	for i, c := range cols {
+		if c.Uncertainty && !seen[c.Input] {
+			return nil, &Error{Param: headers[i], Kind: ErrUncertainty, Msg: fmt.Sprintf("%s is the uncertainty of %s, which has no column", quote(headers[i]), c.Input)}
+		}
+	}
+	return cols, nil
+}
+
+// ProcessRow computes process kind for one row of cells under the
+// columns of ProcessColumns, and returns the answer (Header and Cells give
+// the result columns). Empty cells are inputs not given; an uncertainty
+// cell applies to its input's value in the row, in the uncertainty
+// column's unit or, without one, in the input's. A value cell may carry
+// its own ± too, which wins.
+func ProcessRow(kind string, cols []ProcessColumn, cells []string, opt Options, uo UOptions) (ProcessAnswer, error) {
+	var given []Given
+	uncs := map[string]string{}
+	for i, c := range cols {
+		if c.Input == "" || i >= len(cells) || strings.TrimSpace(cells[i]) == "" {
+			continue
+		}
+		if c.Uncertainty {
+			uncs[c.Input] = strings.TrimSpace(cells[i]) + c.Unit
+			continue
+		}
+		given = append(given, Given{Name: c.Input, Text: cells[i], Unit: c.Unit})
+	}
+	for i, g := range given {
+		unc, ok := uncs[g.Name]
+		if !ok {
+			continue
+		}
+		given[i] = WithUncertainty(given[i], unc)
+	}
+	return RunProcess(kind, given, opt, uo)
+}
