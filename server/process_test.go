@@ -3,6 +3,7 @@ package server_test
 import (
 	"encoding/json"
 	"net/url"
+	"os"
 	"strconv"
 	"strings"
 	"testing"
@@ -88,6 +89,51 @@ func TestProcessRoutes(t *testing.T) {
 		w := get(srv, tc.target)
 		if w.Code != tc.status || !strings.Contains(w.Body.String(), tc.code) {
 			t.Errorf("%s: %d %s, want %d %s", tc.target, w.Code, w.Body, tc.status, tc.code)
+		}
+	}
+}
+
+// TestReadmeProcessRequests sends every request the README's section on
+// results shows (the http block and the inline GET /state with +-) and
+// checks the answers: 200, and the cell answers equal the efficiency and
+// its u the section's table shows (0.774418 ± 0.00424268, to its six
+// figures).
+func TestReadmeProcessRequests(t *testing.T) {
+	b, err := os.ReadFile("../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := string(b)
+	sec := text[strings.Index(text, "<!-- results:begin"):strings.Index(text, "<!-- results:end -->")]
+	srv, _ := newServer(t, server.Config{})
+	var targets []string
+	for _, line := range strings.Split(sec, "\n") {
+		line = strings.Trim(strings.TrimSpace(line), "`:")
+		if i := strings.Index(line, "GET /"); i >= 0 {
+			target := strings.TrimRight(strings.Fields(line[i+4:])[0], "`.")
+			if strings.Contains(target, "…") {
+				continue // a pattern (GET /process/KIND?…), not an example
+			}
+			targets = append(targets, target)
+		}
+	}
+	if len(targets) != 3 {
+		t.Fatalf("found %d requests in the README section, want 3: %q", len(targets), targets)
+	}
+	want := map[string]float64{"efficiency": 0.774418, "u(efficiency)": 0.00424268}
+	for _, target := range targets {
+		w := get(srv, target)
+		if w.Code != 200 {
+			t.Errorf("%s: %d %s", target, w.Code, w.Body)
+			continue
+		}
+		for name, v := range want {
+			if strings.HasPrefix(target, "/process/expansion/"+name+"?") {
+				got, _ := strconv.ParseFloat(w.Body.String(), 64)
+				if !scalar.EqualWithinRel(got, v, 1e-5) {
+					t.Errorf("%s = %g, README shows %g", target, got, v)
+				}
+			}
 		}
 	}
 }
