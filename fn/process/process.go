@@ -353,7 +353,9 @@ func (c *calc) addState(label string, s *uncertain.State) {
 		c.warnings = append(c.warnings, "state "+label+": "+r.Text)
 	}
 	for _, w := range s.Warnings {
-		c.warnings = append(c.warnings, "state "+label+": "+w)
+		// fmt.Sprint reads a warning as text whether it is a string or
+		// a note with a String method.
+		c.warnings = append(c.warnings, "state "+label+": "+fmt.Sprint(w))
 	}
 }
 
