@@ -1,6 +1,7 @@
 package server
 
 import (
+	"fmt"
 	"net/http"
 	"net/url"
 	"strings"
@@ -98,9 +99,9 @@ func (s *Server) getProcessResult(c *gin.Context) {
 		return
 	}
 	name := c.Param("result")
-	which := ""
-	if len(name) > 3 && (name[0] == 'u' || name[0] == 'U') && name[1] == '(' && name[len(name)-1] == ')' {
-		which, name = name[:1], name[2:len(name)-1]
+	which, inner := uncertaintyOf(name)
+	if inner != "" {
+		name = inner
 	}
 	r, err := ans.Result(name)
 	if err != nil {
@@ -166,3 +167,76 @@ func (s *Server) writeMeasured(c *gin.Context, m *point.Measured, ans *point.Ans
 
 // unitSuffix is the " [unit]" part of a field header "h [kJ/kg]".
 func unitSuffix(header, sym string) string { return strings.TrimPrefix(header, sym) }
+
+// uncertaintyOf splits "u(h)" into ("u", "h") and "U(h)" into ("U", "h");
+// any other name gives ("", "").
+func uncertaintyOf(name string) (which, inner string) {
+	if len(name) > 3 && (name[0] == 'u' || name[0] == 'U') && name[1] == '(' && name[len(name)-1] == ')' {
+		return name[:1], name[2 : len(name)-1]
+	}
+	return "", ""
+}
+
+// getStateMeasured answers /state/{property} when the inputs carry ± or
+// the property is u(SYM) or U(SYM): the value, its standard uncertainty
+// or k·u, as a bare number.
+func (s *Server) getStateMeasured(c *gin.Context, prop string) {
+	uq, err := readUncertainty(c.Request.URL.RawQuery, false)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	req, err := s.readRequest(uq.rest, takesInputs)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	which, sym := uncertaintyOf(prop)
+	if sym == "" {
+		sym = prop
+	}
+	syms, err := point.Symbols([]string{sym})
+	if err != nil || len(syms) != 1 {
+		if err == nil {
+			err = &point.Error{Param: clean(prop, 40), Kind: point.ErrUnknownProperty, Msg: "/state/{property} answers one property, e.g. /state/h or /state/u(h)"}
+		}
+		s.failText(c, err)
+		return
+	}
+	if which == "U" && uq.uo.K == 0 {
+		s.failText(c, errorf(ErrBadQuery, "k", "U(%s) is the expanded uncertainty: give its coverage factor, e.g. k=2", clean(sym, 40)))
+		return
+	}
+	m, err := point.SolveMeasured(req.given, req.opt, uq.uo)
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	ans := point.Render(&m.State.State, syms, req.opt)
+	f, err := ans.Value(syms[0])
+	if err != nil {
+		s.failText(c, err)
+		return
+	}
+	v := f.Value
+	var unc point.Uncertainty
+	if m.Given {
+		unc = point.RenderUncertainty(&m, &ans, req.opt, uq.uo)
+	}
+	if which != "" {
+		u, ok := unc.U[syms[0]]
+		if !ok {
+			s.failText(c, &point.Error{Param: clean(prop, 40), Kind: point.ErrUncertainty,
+				Msg: fmt.Sprintf("%s has no uncertainty here: give the inputs theirs after ±, e.g. p=100bar±0.2bar", clean(prop, 40))})
+			return
+		}
+		v = u
+		if which == "U" {
+			v = uq.uo.K * u
+		}
+	}
+	if w := append(append([]string(nil), ans.Warnings...), unc.Warnings...); len(w) > 0 {
+		c.Header("Steamcell-Warning", headerText(strings.Join(w, "; ")))
+	}
+	writeBody(c, http.StatusOK, textType, appendNumber(nil, v))
+}

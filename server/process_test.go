@@ -117,8 +117,8 @@ func TestReadmeProcessRequests(t *testing.T) {
 			targets = append(targets, target)
 		}
 	}
-	if len(targets) != 3 {
-		t.Fatalf("found %d requests in the README section, want 3: %q", len(targets), targets)
+	if len(targets) != 4 {
+		t.Fatalf("found %d requests in the README section, want 4: %q", len(targets), targets)
 	}
 	want := map[string]float64{"efficiency": 0.774418, "u(efficiency)": 0.00424268}
 	for _, target := range targets {
@@ -134,6 +134,38 @@ func TestReadmeProcessRequests(t *testing.T) {
 					t.Errorf("%s = %g, README shows %g", target, got, v)
 				}
 			}
+		}
+	}
+}
+
+// TestStatePropertyUncertainty: /state/u(h) and /state/U(h) answer the
+// uncertainty of one property as a bare number; /state/h with ± inputs
+// answers the value.
+func TestStatePropertyUncertainty(t *testing.T) {
+	srv, _ := newServer(t, server.Config{})
+	q := "?p=100bar%C2%B10.2bar&t=500C%C2%B10.5K&k=2"
+	var full map[string]any
+	if err := json.Unmarshal(get(srv, "/state"+q).Body.Bytes(), &full); err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		prop string
+		want float64
+	}{
+		{"h", full["h"].(float64)},
+		{"u(h)", full["u"].(map[string]any)["h"].(float64)},
+		{"U(h)", full["U"].(map[string]any)["h"].(float64)},
+		{"u(cp)", full["u"].(map[string]any)["cp"].(float64)},
+	} {
+		w := get(srv, "/state/"+tc.prop+q)
+		got, err := strconv.ParseFloat(w.Body.String(), 64)
+		if w.Code != 200 || err != nil || got != tc.want {
+			t.Errorf("/state/%s: %d %s, want %g", tc.prop, w.Code, w.Body, tc.want)
+		}
+	}
+	for _, target := range []string{"/state/u(h)?p=100bar&t=500C", "/state/U(h)?p=100bar%C2%B10.2bar&t=500C"} {
+		if w := get(srv, target); w.Code != 400 {
+			t.Errorf("%s: %d %s, want 400", target, w.Code, w.Body)
 		}
 	}
 }

@@ -61,11 +61,17 @@ func (s *Server) getState(c *gin.Context) {
 // text/plain (in the units of units= and unit_…=), so that a spreadsheet
 // formula can use the body as a value. "phase" and "region" answer the
 // phase in words and the IF97 region. Errors are one line of text with a
-// non-200 status, which spreadsheets show as an error in the cell.
+// non-200 status, which spreadsheets show as an error in the cell. With ±
+// on the inputs, u(SYM) answers a property's standard uncertainty and
+// U(SYM) (with k=) its expanded uncertainty.
 //
 // GET /state/{property}
 func (s *Server) getStateProperty(c *gin.Context) {
 	prop := c.Param("property")
+	if _, inner := uncertaintyOf(prop); inner != "" || mayCarryUncertainty(c.Request.URL.RawQuery) {
+		s.getStateMeasured(c, prop)
+		return
+	}
 	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs)
 	if err != nil {
 		s.failText(c, err)
