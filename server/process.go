@@ -150,7 +150,7 @@ func (s *Server) runProcess(c *gin.Context) (point.ProcessAnswer, string, error)
 func (s *Server) writeMeasured(c *gin.Context, m *point.Measured, ans *point.Answer, syms []string, req request, uo point.UOptions) {
 	unc := point.RenderUncertainty(m, ans, req.opt, uo)
 	if req.format == "csv" {
-		ans.Warnings = append(ans.Warnings, unc.Warnings...)
+		ans.Warnings = unc.Merge(ans.Warnings)
 		head := answerHeader(nil, syms, req.opt.Set)
 		cells := answerCells(nil, ans)
 		for _, sym := range unc.Order {
@@ -235,7 +235,7 @@ func (s *Server) getStateMeasured(c *gin.Context, prop string) {
 			v = uq.uo.K * u
 		}
 	}
-	if w := append(append([]string(nil), ans.Warnings...), unc.Warnings...); len(w) > 0 {
+	if w := unc.Merge(ans.Warnings); len(w) > 0 {
 		c.Header("Steamcell-Warning", headerText(strings.Join(w, "; ")))
 	}
 	writeBody(c, http.StatusOK, textType, appendNumber(nil, v))

@@ -181,7 +181,7 @@ func writeMeasuredTable(out io.Writer, st *fn.State, ans *point.Answer, unc *poi
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	for _, w := range append(append([]string(nil), ans.Warnings...), unc.Warnings...) {
+	for _, w := range unc.Merge(ans.Warnings) {
 		fmt.Fprintf(out, "warning: %s\n", w)
 	}
 	_, err := fmt.Fprintf(out, "uncertainty: %s\nformulation: IAPWS-IF97, unit set %s\n%s\n", unc.Convention, ans.Set, caution)

@@ -402,3 +402,31 @@ func ProcessRow(kind string, cols []ProcessColumn, cells []string, opt Options, 
 	}
 	return RunProcess(kind, given, opt, uo)
 }
+
+// ParseUncertaintyList reads one uncertainty for each of several whole
+// columns, as a --u flag gives them: "p=0.2bar,t=0.5K" or "p1=0.1bar,
+// t1=0.6K,p2=0.5%". It returns each input name (lower case) with its
+// uncertainty text, for WithUncertainty. Each text is checked when it
+// meets its value; here only the form is.
+func ParseUncertaintyList(list string) (map[string]string, error) {
+	out := map[string]string{}
+	for item := range strings.SplitSeq(list, ",") {
+		item = strings.TrimSpace(item)
+		if item == "" {
+			continue
+		}
+		name, unc, ok := strings.Cut(item, "=")
+		name, unc = strings.ToLower(strings.TrimSpace(name)), strings.TrimSpace(unc)
+		sym := strings.TrimRight(name, "0123456789")
+		_, known := InputQuantity(sym)
+		if !ok || unc == "" || !(known || sym == "m") {
+			return nil, &Error{Param: name, Kind: ErrUncertainty, Msg: fmt.Sprintf(
+				"%s is not name=uncertainty; write e.g. p=0.2bar,t=0.5K", quote(item))}
+		}
+		if _, dup := out[name]; dup {
+			return nil, &Error{Param: name, Kind: ErrUncertainty, Msg: fmt.Sprintf("the uncertainty of %s is given twice", name)}
+		}
+		out[name] = unc
+	}
+	return out, nil
+}

@@ -164,6 +164,32 @@ type Uncertainty struct {
 	U          map[string]float64 // symbol → standard uncertainty, in the unit of the value
 	Order      []string           // the symbols of U in the answer's order
 	Warnings   []string           // phase uncertain, linear estimate unreliable
+
+	// marginChecked: the phase check ran on an uncertain distance from
+	// the saturation line, which then replaces the fixed-margin warning.
+	marginChecked bool
+}
+
+// Merge returns the warnings of an answer with those of its
+// uncertainty. Where the phase check ran on the inputs' uncertainties,
+// it replaces the state's fixed-margin warning ("within 0.5 K of
+// saturation"), as the uncertainty says more precisely whether the phase
+// is in doubt.
+func (u *Uncertainty) Merge(warnings []string) []string {
+	out := make([]string, 0, len(warnings)+len(u.Warnings))
+	for _, w := range warnings {
+		if u.marginChecked && isFixedMargin(w) {
+			continue
+		}
+		out = append(out, w)
+	}
+	return append(out, u.Warnings...)
+}
+
+// isFixedMargin reports whether w is the engine's fixed-margin warning
+// near saturation.
+func isFixedMargin(w string) bool {
+	return strings.HasPrefix(w, "within ") && strings.Contains(w, " K of saturation")
 }
 
 // analytic are the properties whose sensitivities come from the analytic
@@ -209,7 +235,9 @@ func RenderUncertainty(m *Measured, ans *Answer, opt Options, uo UOptions) Uncer
 		out.U[p.Symbol] = m.Budget.U(n) / unitScale(unit, opt.Patm)
 		out.Order = append(out.Order, p.Symbol)
 	}
-	if r := uncertain.Phase(m.Budget, s); r.Uncertain {
+	r := uncertain.Phase(m.Budget, s)
+	out.marginChecked = r.U > 0
+	if r.Uncertain {
 		out.Warnings = append(out.Warnings, r.Text)
 	}
 	lin := uncertain.Linearity(m.Budget, checked, func(x []float64) ([]float64, error) {
@@ -257,7 +285,7 @@ const InternalEnergyKey = "e"
 //	"U": {symbol: expanded uncertainty k·u}          (when k was asked for)
 //	"uncertainty": {"convention", "k", "method", "internal_energy_key"}
 //
-// The warnings of the uncertainty join the answer's.
+// The warnings of the uncertainty join the answer's (Merge).
 func (a *Answer) AppendMeasuredJSON(b []byte, inputs []Input, caution string, unc *Uncertainty) []byte {
 	c := *a
 	c.Fields = append([]Field(nil), a.Fields...)
@@ -273,7 +301,7 @@ func (a *Answer) AppendMeasuredJSON(b []byte, inputs []Input, caution string, un
 			c.Fields[i].Symbol = InternalEnergyKey
 		}
 	}
-	c.Warnings = append(append([]string(nil), a.Warnings...), unc.Warnings...)
+	c.Warnings = unc.Merge(a.Warnings)
 	b = c.AppendJSON(b, inputs, caution)
 	b = b[:len(b)-1] // reopen the object
 	member := func(name string, scale float64) {

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"gonum.org/v1/gonum/floats/scalar"
@@ -134,6 +135,15 @@ func TestPhaseUncertainWarning(t *testing.T) {
 	if !found {
 		t.Errorf("warnings %q do not say the phase is uncertain", unc.Warnings)
 	}
+	// The uncertain margin replaces the engine's fixed one.
+	if len(ans.Warnings) == 0 {
+		t.Fatal("the engine gave no fixed-margin warning at 0.3 K from saturation; the test needs one")
+	}
+	for _, w := range unc.Merge(ans.Warnings) {
+		if strings.HasPrefix(w, "within ") {
+			t.Errorf("the fixed-margin warning %q is kept beside the uncertain one", w)
+		}
+	}
 }
 
 // TestUncertaintyHeader reads uncertainty column headers.
@@ -189,5 +199,22 @@ func TestRunProcess(t *testing.T) {
 	var got map[string]any
 	if err := json.Unmarshal(p.AppendJSON(nil, "c"), &got); err != nil {
 		t.Fatal(err)
+	}
+}
+
+// TestParseUncertaintyList reads the one-value-per-column form.
+func TestParseUncertaintyList(t *testing.T) {
+	m, err := point.ParseUncertaintyList("p=0.2bar, T=0.5K,p2=0.5%")
+	if err != nil || len(m) != 3 || m["p"] != "0.2bar" || m["t"] != "0.5K" || m["p2"] != "0.5%" {
+		t.Errorf("got %v, %v", m, err)
+	}
+	g := point.WithUncertainty(point.Given{Name: "p", Text: "6barg"}, m["p"])
+	if g.Text != "6barg±0.2bar" {
+		t.Errorf("WithUncertainty: %q", g.Text)
+	}
+	for _, bad := range []string{"p", "p=", "q=1", "p=1,p=2"} {
+		if _, err := point.ParseUncertaintyList(bad); !errors.Is(err, point.ErrUncertainty) {
+			t.Errorf("%q: err %v", bad, err)
+		}
 	}
 }
