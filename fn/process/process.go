@@ -373,8 +373,8 @@ const (
 	descEfficiencyExp = "isentropic efficiency (h1 − h2)/(h1 − h2s), a fraction"
 	descEfficiencyCmp = "isentropic efficiency (h2s − h1)/(h2 − h1), a fraction"
 	descH2s           = "enthalpy of the isentropic end state at p2 and s1"
-	descWork          = "work per kg, h1 − h2: positive when the fluid does work (expansion), negative when work is done on it (compression)"
-	descWorkS         = "isentropic work per kg, h1 − h2s, same sign convention as work"
+	descWork          = "work per unit mass, h1 − h2: positive when the fluid does work (expansion), negative when work is done on it (compression)"
+	descWorkS         = "isentropic work per unit mass, h1 − h2s, same sign convention as work"
 )
 
 func expansion(c *calc) error   { return turbo(c, true) }
@@ -393,10 +393,10 @@ func turbo(c *calc, expand bool) error {
 		return err
 	}
 	if expand && s2.P.Value >= s1.P.Value {
-		return errorf(ErrRefused, "p2", "an expansion ends at a lower pressure: p2 = %g MPa is not below p1 = %g MPa; for a pump or compressor use compression", s2.P.Value, s1.P.Value)
+		return errorf(ErrRefused, "p2", "an expansion ends at a lower pressure, and p2 is not below p1; for a pump or compressor use compression")
 	}
 	if !expand && s2.P.Value <= s1.P.Value {
-		return errorf(ErrRefused, "p2", "a compression ends at a higher pressure: p2 = %g MPa is not above p1 = %g MPa; for a turbine section use expansion", s2.P.Value, s1.P.Value)
+		return errorf(ErrRefused, "p2", "a compression ends at a higher pressure, and p2 is not above p1; for a turbine section use expansion")
 	}
 	s2s, err := isentropic(s2.P, s1.S)
 	if err != nil {
@@ -448,14 +448,14 @@ func throttling(c *calc) error {
 		return errorf(ErrRefused, "t2", "the downstream state is %s: a throttling calorimeter needs it superheated, so that p2 and t2 fix its enthalpy; throttle to a lower pressure", s2.Phase)
 	}
 	if p1.Value <= s2.P.Value {
-		return errorf(ErrRefused, "p1", "p1 = %g MPa is not above p2 = %g MPa: a throttle lowers the pressure", p1.Value, s2.P.Value)
+		return errorf(ErrRefused, "p1", "p1 is not above p2: a throttle lowers the pressure")
 	}
 	s1, err := uncertain.Solve(uncertain.Input{Q: fn.Pressure, N: p1}, uncertain.Input{Q: fn.Enthalpy, N: s2.H})
 	if err != nil {
 		return fmt.Errorf("upstream state: %w", err)
 	}
 	if !s1.HasX || s1.X.Value >= 1 {
-		return errorf(ErrRefused, "p1", "the upstream state at p1 with h = h2 = %.6g kJ/kg is %s, not wet: a throttling calorimeter gives the quality only of wet steam (x < 1); at this p1 the calorimeter tells only that the steam was dry", s2.H.Value, s1.Phase)
+		return errorf(ErrRefused, "p1", "the upstream state at p1 with h1 = h2 is %s, not wet: a throttling calorimeter gives the quality only of wet steam (x < 1); at this p1 it tells only that the steam was dry", s1.Phase)
 	}
 	c.result("h1", "upstream enthalpy, equal to h2 across an adiabatic throttle", units.SpecificEnergy, s1.H)
 	c.result("x1", "upstream quality (dryness fraction) at p1 and h1", units.Quality, s1.X)
@@ -523,7 +523,7 @@ func mixing(c *calc) error {
 	}
 	lo, hi := math.Min(s1.H.Value, s2.H.Value), math.Max(s1.H.Value, s2.H.Value)
 	if s3.H.Value <= lo || s3.H.Value >= hi {
-		return errorf(ErrRefused, "t3", "the outlet enthalpy %.6g kJ/kg does not lie between the inlets' %.6g and %.6g kJ/kg: no flow of inlet 2 reaches it", s3.H.Value, s1.H.Value, s2.H.Value)
+		return errorf(ErrRefused, "t3", "the outlet enthalpy h3 does not lie between the inlets' h1 and h2: no flow of inlet 2 reaches it")
 	}
 	m2 := m1.Mul(s1.H.Sub(s3.H)).Div(s3.H.Sub(s2.H))
 	c.flow("m2", "flow of inlet 2 that brings the outlet to state 3: m1 (h1 − h3)/(h3 − h2), in the unit of m1", m2)
@@ -568,20 +568,20 @@ func exchanger(c *calc) error {
 	}
 	shell := s1.P.Value
 	if shell >= if97.Pc || shell < fn.PMinSat {
-		return errorf(ErrRefused, "p1", "the shell pressure p1 = %g MPa has no saturation temperature; a closed heater condenses its steam below the critical pressure", shell)
+		return errorf(ErrRefused, "p1", "the shell pressure p1 has no saturation temperature (it is at or above the critical pressure, or below the triple point); a closed heater condenses its steam below the critical pressure")
 	}
 	ts := if97.SatTemperature(shell)
 	tsat := s1.P.Apply(ts, 1/if97.SatPressureSlope(ts))
 	duty := s4.H.Sub(s3.H)
 	drop := s1.H.Sub(s2.H)
 	if drop.Value <= 0 {
-		return errorf(ErrRefused, "t2", "the drain enthalpy %.6g kJ/kg is not below the steam's %.6g kJ/kg: the steam gave no heat", s2.H.Value, s1.H.Value)
+		return errorf(ErrRefused, "t2", "the drain enthalpy h2 is not below the steam's h1: the steam gave no heat")
 	}
 	if duty.Value <= 0 {
-		return errorf(ErrRefused, "t4", "the feedwater outlet enthalpy %.6g kJ/kg is not above the inlet's %.6g kJ/kg: the feedwater took no heat", s4.H.Value, s3.H.Value)
+		return errorf(ErrRefused, "t4", "the feedwater outlet enthalpy h4 is not above the inlet's h3: the feedwater took no heat")
 	}
-	c.result("duty", "heat to the feedwater per kg of feedwater, h4 − h3", units.SpecificEnergy, duty)
-	c.result("extraction", "extraction steam per kg of feedwater, (h4 − h3)/(h1 − h2), kg/kg", units.Dimensionless, duty.Div(drop))
+	c.result("duty", "heat to the feedwater per unit mass of feedwater, h4 − h3", units.SpecificEnergy, duty)
+	c.result("extraction", "extraction steam per unit mass of feedwater, (h4 − h3)/(h1 − h2)", units.Dimensionless, duty.Div(drop))
 	c.difference("ttd", "terminal temperature difference Ts(p1) − t4: positive when the feedwater leaves below the shell's saturation temperature", tsat.Sub(s4.T))
 	c.difference("dca", "drain cooler approach t2 − t3", s2.T.Sub(s3.T))
 	c.result("tsat", "saturation temperature at the shell pressure p1", units.Temperature, tsat)
