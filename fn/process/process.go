@@ -178,9 +178,14 @@ func Run(kind string, in []Value) (Answer, error) {
 	ans := Answer{Kind: k.Name, Results: c.results, States: c.states, Warnings: c.warnings, Budget: c.b}
 	ys := make([]uncertain.Number, len(ans.Results))
 	for i := range ans.Results {
+		ys[i] = ans.Results[i].n
+	}
+	// The covariance of the results, J Σ Jᵀ with J their Jacobian with
+	// respect to the raw readings: its diagonal gives each u.
+	cov := c.b.CovarianceMatrix(ys)
+	for i := range ans.Results {
 		r := &ans.Results[i]
-		ys[i] = r.n
-		r.Value, r.U = r.n.Value, c.b.U(r.n)
+		r.Value, r.U = r.n.Value, math.Sqrt(cov.At(i, i))
 		r.Contributions = c.b.Contributions(r.n)
 	}
 	lin := uncertain.Linearity(c.b, ys, func(x []float64) ([]float64, error) {

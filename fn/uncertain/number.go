@@ -29,11 +29,11 @@ func (b *Budget) Input(name string, x, u float64) Number {
 // Len is the number of raw inputs.
 func (b *Budget) Len() int { return len(b.names) }
 
-// Name, Value and StdU describe raw input i.
-func (b *Budget) Name(i int) string        { return b.names[i] }
-func (b *Budget) Value(i int) float64      { return b.values[i] }
-func (b *Budget) StdU(i int) float64       { return b.u[i] }
-func (b *Budget) SetStdU(i int, u float64) { b.u[i] = u }
+// Name is the name of raw input i.
+func (b *Budget) Name(i int) string { return b.names[i] }
+
+// StdU is the standard uncertainty of raw input i.
+func (b *Budget) StdU(i int) float64 { return b.u[i] }
 
 // U is the combined standard uncertainty of y, JCGM 100:2008 Eq. (10):
 // u²(y) = Σ cᵢ² u²(xᵢ) over the raw inputs, which are uncorrelated.
@@ -154,9 +154,6 @@ func (y Number) Mul(z Number) Number { return combine(y.Value*z.Value, y, z.Valu
 func (y Number) Div(z Number) Number {
 	return combine(y.Value/z.Value, y, 1/z.Value, z, -y.Value/(z.Value*z.Value))
 }
-
-// Scale returns k·y for a constant k.
-func (y Number) Scale(k float64) Number { return combine(k*y.Value, y, k, Number{}, 0) }
 
 // Apply returns f(y) given its value fy and derivative dfy at y.
 func (y Number) Apply(fy, dfy float64) Number { return combine(fy, y, dfy, Number{}, 0) }

@@ -237,9 +237,6 @@ func (s *State) field(q fn.Quantity) *Number {
 	return nil
 }
 
-// Of returns the Number of quantity q (an input quantity).
-func (s *State) Of(q fn.Quantity) Number { return *s.field(q) }
-
 // Numeric returns the value and sensitivities of a property the state
 // carries no analytic row for (cp, w, the transport properties, the
 // saturation temperature, …), by central differences of get along the

@@ -260,3 +260,25 @@ func TestNumericMatchesAnalytic(t *testing.T) {
 		t.Errorf("dhf/dT = %.9g (x: %g), want %.9g (x: 0)", n.Sensitivity(0), n.Sensitivity(1), s0.H.Sensitivity(0))
 	}
 }
+
+// TestCovarianceMatrix: J Σ Jᵀ has the squared u on its diagonal and the
+// covariances of JCGM 100:2008 Eq. (F.2) off it; h and s of one state
+// from (p, T) are correlated, positively, through T.
+func TestCovarianceMatrix(t *testing.T) {
+	bud, s := solve2(t, fn.Pressure, 10, 0.05, fn.Temperature, 773.15, 0.5)
+	ys := []uncertain.Number{s.H, s.S, s.V}
+	c := bud.CovarianceMatrix(ys)
+	for i, y := range ys {
+		for j, z := range ys {
+			if !scalar.EqualWithinAbsOrRel(c.At(i, j), bud.Covariance(y, z), 1e-15, 1e-12) {
+				t.Errorf("C[%d][%d] = %g, Covariance %g", i, j, c.At(i, j), bud.Covariance(y, z))
+			}
+		}
+		if !scalar.EqualWithinRel(math.Sqrt(c.At(i, i)), bud.U(y), 1e-12) {
+			t.Errorf("√C[%d][%d] = %g, u = %g", i, i, math.Sqrt(c.At(i, i)), bud.U(y))
+		}
+	}
+	if r := c.At(0, 1) / math.Sqrt(c.At(0, 0)*c.At(1, 1)); !(r > 0 && r < 1) {
+		t.Errorf("correlation of h and s = %g, want between 0 and 1 (both rise with T; p moves them in other proportions)", r)
+	}
+}
