@@ -233,3 +233,53 @@ func TestInputErrors(t *testing.T) {
 		}
 	}
 }
+
+// TestProcessMonteCarlo: the u of the throttling calorimeter's quality,
+// the heater's extraction flow and TTD, the spray flow and a pump's
+// efficiency agree with a Monte Carlo propagation (JCGM 101:2008, distuv,
+// fixed seed) within four standard errors of its standard deviation. The
+// readings are our own.
+func TestProcessMonteCarlo(t *testing.T) {
+	for i, tc := range []struct {
+		kind, result string
+		in           []process.Value
+	}{
+		{"throttling", "x1", []process.Value{{Name: "p1", X: 1, U: 0.005}, {Name: "p2", X: 0.1, U: 0.001}, {Name: "t2", X: 393.15, U: 0.5}}},
+		{"exchanger", "extraction", []process.Value{{Name: "p1", X: 0.602, U: 0.003}, {Name: "t1", X: 484.75, U: 0.6}, {Name: "t2", X: 423.45, U: 0.4},
+			{Name: "p3", X: 6.15, U: 0.03}, {Name: "t3", X: 413.25, U: 0.3}, {Name: "t4", X: 428.15, U: 0.3}}},
+		{"exchanger", "ttd", []process.Value{{Name: "p1", X: 0.602, U: 0.003}, {Name: "t1", X: 484.75, U: 0.6}, {Name: "t2", X: 423.45, U: 0.4},
+			{Name: "p3", X: 6.15, U: 0.03}, {Name: "t3", X: 413.25, U: 0.3}, {Name: "t4", X: 428.15, U: 0.3}}},
+		{"mixing", "m2", []process.Value{{Name: "p1", X: 4.085, U: 0.01}, {Name: "t1", X: 680.25, U: 0.6}, {Name: "m1", X: 38.5, U: 0.4},
+			{Name: "p2", X: 5.5, U: 0.03}, {Name: "t2", X: 413.15, U: 0.5}, {Name: "t3", X: 653.15, U: 1}}},
+		{"compression", "efficiency", []process.Value{{Name: "p1", X: 0.1, U: 0.001}, {Name: "t1", X: 400, U: 0.3},
+			{Name: "p2", X: 0.5, U: 0.003}, {Name: "t2", X: 620, U: 0.3}}},
+	} {
+		a := run(t, tc.kind, tc.in...)
+		r := res(t, a, tc.result)
+		src := rand.NewPCG(uint64(i+1), 17)
+		const draws = 5000
+		ys := make([]float64, 0, draws)
+		dists := make([]distuv.Normal, len(tc.in))
+		for k, v := range tc.in {
+			dists[k] = distuv.Normal{Mu: v.X, Sigma: v.U, Src: src}
+		}
+		for range draws {
+			moved := make([]process.Value, len(tc.in))
+			for k, v := range tc.in {
+				moved[k] = process.Value{Name: v.Name, X: dists[k].Rand()}
+			}
+			b, err := process.Run(tc.kind, moved)
+			if err != nil {
+				t.Fatalf("%s: a draw: %v", tc.kind, err)
+			}
+			got, _ := b.Result(tc.result)
+			ys = append(ys, got.Value)
+		}
+		_, sd := stat.MeanStdDev(ys, nil)
+		se := sd / math.Sqrt(2*(draws-1))
+		t.Logf("%-11s %-10s %.6g: GUM u %.5g, Monte Carlo sd %.5g (%+.2f %%, %+.1f SE)", tc.kind, tc.result, r.Value, r.U, sd, 100*(sd-r.U)/r.U, (sd-r.U)/se)
+		if math.Abs(sd-r.U) > 4*se || r.Unreliable {
+			t.Errorf("%s %s: GUM u %.6g, Monte Carlo %.6g ± %.2g (unreliable flag %v)", tc.kind, tc.result, r.U, sd, se, r.Unreliable)
+		}
+	}
+}
