@@ -21,7 +21,8 @@ func documentedPaths(t *testing.T) map[string]string {
 	out := map[string]string{}
 	for p, item := range loadSpec(t).Paths.Map() {
 		for method := range item.Operations() {
-			out[strings.ReplaceAll(p, "{property}", "h")] = method
+			p := strings.NewReplacer("{property}", "h", "{kind}", "expansion", "{result}", "efficiency").Replace(p)
+			out[p] = method
 		}
 	}
 	return out
@@ -44,6 +45,8 @@ func TestHeadAndOptions(t *testing.T) {
 			target += query
 		} else if strings.HasPrefix(path, "/saturation") {
 			target += "?p=10bar"
+		} else if strings.HasPrefix(path, "/process") {
+			target += "?p1=60bar&t1=480C&p2=12bar&t2=280C"
 		}
 		req, _ := http.NewRequest(http.MethodOptions, target, nil)
 		resp, err := http.DefaultClient.Do(req)

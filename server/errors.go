@@ -14,6 +14,8 @@ import (
 
 	"steamcell/fn"
 	"steamcell/fn/point"
+	"steamcell/fn/process"
+	"steamcell/fn/uncertain"
 	"steamcell/fn/units"
 )
 
@@ -133,6 +135,13 @@ var errorTable = []errorClass{
 	{fn.ErrNoSolution, http.StatusUnprocessableEntity, "no_solution"},
 	{fn.ErrTwoSolutions, http.StatusUnprocessableEntity, "two_solutions"},
 	{fn.ErrOnSaturation, http.StatusUnprocessableEntity, "on_saturation"},
+
+	// Uncertainties and processes (fn/point, fn/uncertain, fn/process).
+	{point.ErrUncertainty, http.StatusBadRequest, "bad_uncertainty"},
+	{uncertain.ErrDegenerate, http.StatusUnprocessableEntity, "degenerate_inputs"},
+	{process.ErrKind, http.StatusNotFound, "unknown_process"},
+	{process.ErrInput, http.StatusBadRequest, "process_input"},
+	{process.ErrRefused, http.StatusUnprocessableEntity, "process_refused"},
 }
 
 // internalCode is the code of every error not in errorTable.
@@ -170,6 +179,7 @@ func paramOf(err error) string {
 	var pe *point.Error
 	var ue *units.InputError
 	var fe *fn.InputError
+	var pre *process.Error
 	switch {
 	case errors.As(err, &se):
 		return clean(se.Param, 64)
@@ -179,6 +189,8 @@ func paramOf(err error) string {
 		return clean(ue.Name, 64)
 	case errors.As(err, &fe):
 		return clean(fe.Input, 64)
+	case errors.As(err, &pre):
+		return clean(pre.Param, 64)
 	}
 	return ""
 }

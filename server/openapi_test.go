@@ -14,6 +14,7 @@ import (
 	"github.com/getkin/kin-openapi/openapi3filter"
 	"github.com/getkin/kin-openapi/routers/legacy"
 
+	"steamcell/fn/process"
 	"steamcell/fn/units"
 	"steamcell/server"
 )
@@ -52,7 +53,7 @@ func TestOpenAPIDocument(t *testing.T) {
 	srv, _ := newServer(t, server.Config{})
 	for _, p := range paths {
 		for method := range doc.Paths.Value(p).Operations() {
-			w := send(srv, method, strings.ReplaceAll(p, "{property}", "h"), "", nil)
+			w := send(srv, method, strings.NewReplacer("{property}", "h", "{kind}", "expansion", "{result}", "efficiency").Replace(p), "", nil)
 			if w.Code == 404 || w.Code == 405 {
 				t.Errorf("%s %s is documented but answers %d", method, p, w.Code)
 			}
@@ -66,6 +67,14 @@ func TestOpenAPIDocument(t *testing.T) {
 	}
 	if !slices.Equal(names, units.SetNames()) {
 		t.Errorf("units enum %q, want %q", names, units.SetNames())
+	}
+	// The process kinds offered are those of the engine.
+	names = nil
+	for _, e := range doc.Components.Parameters["kind"].Value.Schema.Value.Enum {
+		names = append(names, e.(string))
+	}
+	if !slices.Equal(names, process.KindNames()) {
+		t.Errorf("kind enum %q, want %q", names, process.KindNames())
 	}
 }
 
@@ -92,6 +101,14 @@ func TestOpenAPIResponses(t *testing.T) {
 		{"GET", "/state/h?p=6barg&t=330C&units=us", "", "", 200},
 		{"GET", "/state/h?p=6barg", "", "", 400},
 		{"GET", "/state/cp?p=1MPa&x=0.5", "", "", 422},
+		{"GET", "/state?p=100bar%C2%B10.2bar&t=500C%C2%B10.5K&k=2", "", "", 200},
+		{"GET", "/process/expansion?p1=60bar%C2%B10.3bar&t1=480C%C2%B11K&p2=12bar%C2%B10.1bar&t2=280C%C2%B11K&k=2", "", "", 200},
+		{"GET", "/process/expansion?p1=60bar&t1=480C&p2=12bar&t2=280C&format=csv", "", "", 200},
+		{"GET", "/process/exchanger?p1=12bar&t1=300C&t2=165C&p3=80bar&t3=157C&t4=184C", "", "", 200},
+		{"GET", "/process/expansion/u(efficiency)?p1=60bar%C2%B10.3bar&t1=480C&p2=12bar&t2=280C", "", "", 200},
+		{"GET", "/process/turbine?p1=1MPa", "", "", 404},
+		{"GET", "/process/throttling?p1=1MPa&p2=0.1MPa&t2=200C", "", "", 422},
+		{"GET", "/process/expansion?p1=6MPa", "", "", 400},
 		{"GET", "/saturation?p=10bar", "", "", 200},
 		{"GET", "/saturation/t?p=10bar", "", "", 200},
 		{"GET", "/saturation/hfg?t=400C", "", "", 422},

@@ -174,6 +174,8 @@ func (s *Server) table() []route {
 		{"GET", "/state/:property", h(s.getStateProperty)},
 		{"GET", "/saturation", h(s.getSaturation)},
 		{"GET", "/saturation/:property", h(s.getSaturationProperty)},
+		{"GET", "/process/:kind", h(s.getProcess)},
+		{"GET", "/process/:kind/:result", h(s.getProcessResult)},
 		{"POST", "/batch", h(s.limitBulk, s.postBatch)},
 		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook)},
 		{"GET", "/openapi.json", h(s.getOpenAPI)},

@@ -17,21 +17,36 @@ import (
 //
 // GET /state
 func (s *Server) getState(c *gin.Context) {
-	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs|takesGet|takesFormat)
+	raw := c.Request.URL.RawQuery
+	var uq uncertaintyQuery
+	if mayCarryUncertainty(raw) {
+		var err error
+		if uq, err = readUncertainty(raw, false); err != nil {
+			s.fail(c, err)
+			return
+		}
+		raw = uq.rest
+	}
+	req, err := s.readRequest(raw, takesInputs|takesGet|takesFormat)
 	if err != nil {
 		s.fail(c, err)
 		return
 	}
-	st, in, err := point.Solve(req.given, req.opt)
+	m, err := point.SolveMeasured(req.given, req.opt, uq.uo)
 	if err != nil {
 		s.fail(c, err)
 		return
 	}
+	st, in := &m.State.State, m.Inputs
 	syms := req.syms
 	if syms == nil {
 		syms = point.DefaultSymbols()
 	}
-	ans := point.Render(&st, syms, req.opt)
+	ans := point.Render(st, syms, req.opt)
+	if m.Given {
+		s.writeMeasured(c, &m, &ans, syms, req, uq.uo)
+		return
+	}
 	if req.format == "csv" {
 		writeBody(c, http.StatusOK, csvType, appendAnswerCSV(nil, &ans, syms, req.opt.Set))
 		return
@@ -47,11 +62,17 @@ func (s *Server) getState(c *gin.Context) {
 // text/plain (in the units of units= and unit_…=), so that a spreadsheet
 // formula can use the body as a value. "phase" and "region" answer the
 // phase in words and the IF97 region. Errors are one line of text with a
-// non-200 status, which spreadsheets show as an error in the cell.
+// non-200 status, which spreadsheets show as an error in the cell. With ±
+// on the inputs, u(SYM) answers a property's standard uncertainty and
+// U(SYM) (with k=) its expanded uncertainty.
 //
 // GET /state/{property}
 func (s *Server) getStateProperty(c *gin.Context) {
 	prop := c.Param("property")
+	if _, inner := uncertaintyOf(prop); inner != "" || mayCarryUncertainty(c.Request.URL.RawQuery) {
+		s.getStateMeasured(c, prop)
+		return
+	}
 	req, err := s.readRequest(c.Request.URL.RawQuery, takesInputs)
 	if err != nil {
 		s.failText(c, err)

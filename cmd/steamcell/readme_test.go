@@ -150,6 +150,9 @@ func TestREADMEExamples(t *testing.T) {
 					j++
 					want = append(want, strings.TrimPrefix(b.body[j], "# "))
 				}
+				if len(want) == 0 && j == len(b.body)-1 && i+1 < len(blocks) && blocks[i+1].lang == "text" {
+					want = blocks[i+1].body // the output shown in a block of its own
+				}
 				if kind == "state" && len(want) == 0 {
 					t.Errorf("README line %d: %s prints no output to compare", b.line+j+1, line)
 				}

@@ -26,6 +26,7 @@ func (a *App) stateCommand() *cobra.Command {
 		unitSet  string
 		patmText string
 		get      string
+		uflags   uncertaintyFlags
 	)
 	cmd := &cobra.Command{
 		Use:   "state NAME=VALUE NAME=VALUE",
@@ -35,11 +36,14 @@ name=value with an optional unit. Inputs: p, t, h, s, v, rho, u, x.
 Pairs: p,t  p,h  p,s  h,s  p,x  t,x  p,v  t,v  t,h  t,s  u,v (rho for v).
 
 Bare numbers are read in the unit set of --units (default si: kPa, °C,
-kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.`,
+kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.
+An input may carry its uncertainty after ± (or +-): p=100bar±0.2bar
+t=500C±0.5K; every property then gets its standard uncertainty u.`,
 		Example: `  steamcell state p=6barg t=330C
   steamcell state p=1MPa x=0.9 --units us
   steamcell state h=2800kJ/kg s=6.5 --json
-  steamcell state p=3MPa t=300K --get h,s,cp,mu`,
+  steamcell state p=3MPa t=300K --get h,s,cp,mu
+  steamcell state p=100bar±0.2bar t=500C±0.5K --k 2`,
 		Args: func(cmd *cobra.Command, args []string) error {
 			if len(args) != 2 {
 				return usageError{fmt.Errorf("state needs two inputs as name=value (e.g. p=6barg t=330C), got %d", len(args))}
@@ -67,8 +71,13 @@ kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.`,
 			if err != nil {
 				return usageError{err}
 			}
+			uo, err := uflags.options()
+			if err != nil {
+				return usageError{err}
+			}
 			opt = opt.Typed(given) // figures of warnings in the units typed
-			st, in, err := point.Solve(given, opt)
+			m, err := point.SolveMeasured(given, opt, uo)
+			st, in := m.State.State, m.Inputs
 			if err != nil {
 				var pe *point.Error
 				var ue *units.InputError
@@ -79,6 +88,14 @@ kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.`,
 			}
 			ans := point.Render(&st, syms, opt)
 			out := cmd.OutOrStdout()
+			if m.Given {
+				unc := point.RenderUncertainty(&m, &ans, opt, uo)
+				if asJSON {
+					_, err = out.Write(append(ans.AppendMeasuredJSON(nil, point.Inputs(in, opt), caution, &unc), '\n'))
+					return err
+				}
+				return writeMeasuredTable(out, &st, &ans, &unc)
+			}
 			if asJSON {
 				b := ans.AppendJSON(nil, point.Inputs(in, opt), caution)
 				_, err = out.Write(append(b, '\n'))
@@ -92,6 +109,7 @@ kJ/kg, kJ/(kg·K), m³/kg); gauge pressures ("6barg", "87 psig") use --patm.`,
 	f.StringVar(&unitSet, "units", "si", "unit set for bare numbers and output: "+strings.Join(units.SetNames(), ", "))
 	f.StringVar(&patmText, "patm", "", "atmospheric pressure for gauge units, with unit (default 101.325 kPa)")
 	f.StringVar(&get, "get", "", "comma-separated properties to print (default: thermodynamic ones; 'all' adds transport)")
+	uflags.add(cmd)
 	return cmd
 }
 
