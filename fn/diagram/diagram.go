@@ -333,3 +333,19 @@ func ReadRange(lo, hi string, a Axis, param string, opt point.Options) ([2]float
 	}
 	return r, nil
 }
+
+// DomeXY returns the saturation dome of kind k in the units of opt as one
+// line of (x, y) pairs: the saturated liquid from 273.15 K up to the
+// critical point and the saturated vapour back down. It is the data a
+// chart drawn by another program (a spreadsheet's own chart) needs.
+func DomeXY(k Kind, opt point.Options) [][2]float64 {
+	d := &Diagram{Kind: k, Opt: opt}
+	liq, vap := Dome()
+	out := make([][2]float64, 0, len(liq.Samples)+len(vap.Samples))
+	for _, l := range []Line{liq, vap} {
+		for _, xy := range d.lineXYs(&l) {
+			out = append(out, [2]float64{xy.X, xy.Y})
+		}
+	}
+	return out
+}
