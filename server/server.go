@@ -10,6 +10,7 @@ import (
 	"github.com/gin-gonic/gin"
 
 	"steamcell/fn/units"
+	"steamcell/server/web"
 )
 
 func init() {
@@ -121,6 +122,17 @@ func (s *Server) routes() *gin.Engine {
 	r.GET("/healthz", s.getHealth)
 	r.GET("/metrics", s.getMetrics)
 
+	// The page, its diagrams and steam tables.
+	r.GET("/diagram/:file", s.getDiagram)
+	r.POST("/diagram/:file", s.getDiagram)
+	r.GET("/table", s.getTable)
+	if page, assets, err := web.Handler(Caution, s.cfg.Version); err == nil {
+		r.GET("/", gin.WrapH(page))
+		r.GET("/web/*file", gin.WrapH(assets))
+	} else {
+		s.log.Error("page not built", slog.String("error", err.Error()))
+	}
+
 	r.NoRoute(s.noRoute)
 	r.NoMethod(s.noMethod)
 	return r
@@ -154,6 +166,10 @@ var routeNames = map[string]string{
 	"/openapi.json":    "/openapi.json",
 	"/healthz":         "/healthz",
 	"/metrics":         "/metrics",
+	"/diagram/:file":   "/diagram/{file}",
+	"/table":           "/table",
+	"/":                "/",
+	"/web/*file":       "/web/{file}",
 }
 
 // routeOf names the route of a request; "unmatched" for no route, so that
@@ -167,7 +183,7 @@ func routeOf(c *gin.Context) string {
 
 // noRoute answers a path that is no route.
 func (s *Server) noRoute(c *gin.Context) {
-	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics", clean(c.Request.URL.Path, 80)))
+	s.fail(c, errorf(ErrNoRoute, "", "no route %s; routes are GET /state, GET /state/{property}, GET /saturation, POST /batch, POST /workbook, GET /openapi.json, GET /healthz, GET /metrics, GET / (the page), GET /diagram/{kind}.svg, GET /table", clean(c.Request.URL.Path, 80)))
 }
 
 // noMethod answers a route asked with the wrong method.
