@@ -65,7 +65,7 @@ func Handler(caution, version string) (page, assets http.Handler, err error) {
 	page = http.HandlerFunc(func(w http.ResponseWriter, r *http.Request) {
 		w.Header().Set("Content-Type", "text/html; charset=utf-8")
 		// The page loads nothing from elsewhere; say so to the browser.
-		w.Header().Set("Content-Security-Policy", "default-src 'self'; img-src 'self' blob: data:; style-src 'self'; script-src 'self'")
+		w.Header().Set("Content-Security-Policy", "default-src 'self'; connect-src 'self' blob:; img-src 'self' blob: data:; style-src 'self'; script-src 'self'")
 		http.ServeContent(w, r, "index.html", started, bytes.NewReader(body))
 	})
 	sub, err := fs.Sub(files, "assets")

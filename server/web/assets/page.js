@@ -93,6 +93,7 @@
     return lines.slice(1).map((l) => split(l).map((c, i) => head[i] ? head[i].name + "=" + c + (head[i].unit && c ? " " + head[i].unit : "") : "").filter((c) => c && !/=$/.test(c)).join(","));
   }
   let view = null; // the JSON form of the picture shown
+  let drawing = 0; // the latest draw; an earlier one that ends later is dropped
   function diagramQuery() {
     const q = new URLSearchParams();
     for (const p of pointsFromText($("plot-points").value)) q.append("pt", p);
@@ -102,20 +103,25 @@
     return q.toString();
   }
   async function draw() {
+    const mine = ++drawing;
     const kind = $("plot-kind").value;
     const q = diagramQuery();
     const res = await fetch(withKey("/diagram/" + kind + ".json?" + q));
+    if (mine !== drawing) return;
     if (!res.ok) { showError($("plot-error"), await problemText(res)); return; }
     showError($("plot-error"), "");
-    view = await res.json();
+    const next = await res.json();
+    if (mine !== drawing) return;
+    view = next;
     const img = $("plot-img");
     img.alt = view.title + " diagram of water with " + view.points.length + " points";
     const loaded = new Promise((ok) => { img.onload = ok; img.onerror = ok; });
     img.src = withKey("/diagram/" + kind + ".svg?" + q);
     for (const f of ["svg", "png", "json"]) $("plot-" + f).href = withKey("/diagram/" + kind + "." + f + "?" + q);
     await loaded;
+    if (mine !== drawing) return;
     overlay();
-    $("plot-box").dataset.ready = String(Date.now());
+    $("plot-box").dataset.ready = String(mine);
   }
   // frac places a value along an axis as a fraction of the frame.
   function frac(v, ax) {
