@@ -104,6 +104,10 @@ func (d *Diagram) plot() (*plot.Plot, error) {
 		ax.Tick.Marker = plot.TickerFunc(linearTicks)
 		if []Axis{d.Kind.X, d.Kind.Y}[i].Log {
 			ax.Scale, ax.Tick.Marker = plot.LogScale{}, plot.TickerFunc(logTicks)
+			// gonum reserves room for a centred axis label at the linear
+			// middle of the range, far off centre on a log scale; a label
+			// at the end of the axis keeps the frame where it belongs.
+			ax.Label.Position = []float64{draw.PosRight, draw.PosTop}[i]
 		}
 	}
 	grid := plotter.NewGrid()
@@ -123,7 +127,7 @@ func (d *Diagram) plot() (*plot.Plot, error) {
 			return nil, err
 		}
 		pl.LineStyle = lineStyle(l.Family)
-		p.Add(pl)
+		p.Add(lineOnly{pl})
 		if at, ok := d.labelAt(l, xys); ok && l.Family != Liquid && l.Family != Vapour {
 			labels.XYs = append(labels.XYs, at)
 			labels.Labels = append(labels.Labels, d.LineLabel(l))
@@ -155,7 +159,7 @@ func (d *Diagram) plot() (*plot.Plot, error) {
 			lb.TextStyle[i].Font.Size, lb.TextStyle[i].Font.Variant = 8, sans
 		}
 		lb.Offset = vg.Point{X: vg.Points(4), Y: vg.Points(2)}
-		p.Add(lb)
+		p.Add(insideLabels{lb})
 	}
 	// After Add, which widens the axes to the data: the picture shows
 	// exactly the diagram's ranges.
@@ -165,6 +169,22 @@ func (d *Diagram) plot() (*plot.Plot, error) {
 }
 
 func ptr(s Sample) *Sample { return &s }
+
+// lineOnly is a line that only draws: its vertices claim no room around
+// the frame (gonum pads for them, which shifts the frame off the axes'
+// ranges on a log axis), and the axes' ranges are set, not read from it.
+type lineOnly struct{ l *plotter.Line }
+
+// Plot draws the line.
+func (o lineOnly) Plot(c draw.Canvas, p *plot.Plot) { o.l.Plot(c, p) }
+
+// insideLabels are labels placed inside the frame (labelAt keeps them off
+// its edges), which therefore claim no room around it: gonum's padding
+// for glyphs near the edges would shift the frame off the axes' ranges.
+type insideLabels struct{ *plotter.Labels }
+
+// GlyphBoxes returns none; see insideLabels.
+func (insideLabels) GlyphBoxes(*plot.Plot) []plot.GlyphBox { return nil }
 
 // addMarks draws the user's process lines, then their points on top with
 // their labels.
@@ -265,7 +285,8 @@ func (d *Diagram) labelAt(l *Line, xys plotter.XYs) (plotter.XY, bool) {
 }
 
 // labelInset keeps line labels this fraction of the frame inside its
-// edges, where they would run into the axes and each other.
+// edges, where they would run into the axes and each other; three times
+// as far from the right edge, as a label runs to the right of its point.
 const labelInset = 0.04
 
 // inside reports whether (x, y) in the axes' units is within the frame.
@@ -275,16 +296,18 @@ func (d *Diagram) inside(x, y float64) bool { return d.insideBy(x, y, 0) }
 // fraction f of each axis (on a log axis, of its decades).
 func (d *Diagram) insideBy(x, y, f float64) bool {
 	xr, yr := d.Bounds()
-	return within(x, xr, d.Kind.X.Log, f) && within(y, yr, d.Kind.Y.Log, f)
+	return within(x, xr, d.Kind.X.Log, f, 3*f) && within(y, yr, d.Kind.Y.Log, f, f)
 }
 
-func within(v float64, r Range, log bool, f float64) bool {
+// within reports whether v lies in r less the fractions lo and hi of it
+// at its ends.
+func within(v float64, r Range, log bool, lo, hi float64) bool {
 	if log {
 		if v <= 0 {
 			return false
 		}
 		v, r = math.Log10(v), Range{math.Log10(r.Min), math.Log10(r.Max)}
 	}
-	pad := f * (r.Max - r.Min)
-	return v >= r.Min+pad && v <= r.Max-pad
+	span := r.Max - r.Min
+	return v >= r.Min+lo*span && v <= r.Max-hi*span
 }
