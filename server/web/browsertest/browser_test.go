@@ -388,3 +388,46 @@ func TestScreenshots(t *testing.T) {
 		}
 	}
 }
+
+// TestTableMaker fills in the steam-table form and reads the table shown
+// on the page.
+func TestTableMaker(t *testing.T) {
+	base := serve(t)
+	ctx := browser(t)
+	err := chromedp.Do(ctx,
+		chromedp.Navigate(base+"/"),
+		chromedp.WaitVisible(chromedp.ID("table-from")),
+		typeInto("table-from", "1 MPa"),
+		typeInto("table-to", "10 MPa"),
+		typeInto("table-step", "9 MPa"),
+		chromedp.SetValue(chromedp.ID("table-units"), "base"),
+		chromedp.Click(chromedp.ID("table-show")),
+		chromedp.WaitVisible(chromedp.CSS(`#table-result tr:nth-child(3) td`)),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	cells, err := chromedp.Run(ctx, chromedp.Evaluate[[]string](`[...document.querySelectorAll("#table-result tr")].slice(1).map((r) => r.cells[1].textContent)`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Ts at 1 MPa and 10 MPa, R7-97(2012) Table 36, to the page's seven
+	// significant figures.
+	want := []float64{0.453035632e3, 0.584149488e3}
+	if len(cells) != len(want) {
+		t.Fatalf("table rows %q", cells)
+	}
+	for i, c := range cells {
+		got, err := strconv.ParseFloat(c, 64)
+		if err != nil || !scalar.EqualWithinRel(got, want[i], 1e-6) {
+			t.Errorf("row %d: Ts %q K, want %.7g (R7-97 Table 36)", i, c, want[i])
+		}
+	}
+	head, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#table-result tr th:nth-child(2)`)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if head != "t [K]" {
+		t.Errorf("second column header %q, want t [K]", head)
+	}
+}
