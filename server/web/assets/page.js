@@ -120,6 +120,11 @@
     for (const f of ["svg", "png", "json"]) $("plot-" + f).href = withKey("/diagram/" + kind + "." + f + "?" + q);
     await loaded;
     if (mine !== drawing) return;
+    // The range fields read in the axes' units: say which.
+    for (const a of ["x", "y"]) {
+      const ax = view[a];
+      document.querySelector('label[for="plot-' + a + 'min"]').textContent = ax.symbol + (ax.unit ? " in " + ax.unit : "") + " from";
+    }
     overlay();
     $("plot-box").dataset.ready = String(mine);
   }
