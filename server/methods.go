@@ -26,6 +26,10 @@ func (s *Server) handle(r *gin.Engine, method, path string, h ...gin.HandlerFunc
 		r.HEAD(path, h...)
 		methods = append(methods, http.MethodHead)
 	}
+	if before, ok := s.allow[path]; ok { // a second method on the path (GET and POST)
+		s.allow[path] = strings.Join(methods, ", ") + ", " + before
+		return
+	}
 	r.OPTIONS(path, s.options)
 	s.allow[path] = strings.Join(append(methods, http.MethodOptions), ", ")
 }

@@ -1,6 +1,7 @@
 package server
 
 import (
+	"strconv"
 	"sync"
 
 	"github.com/gin-gonic/gin"
@@ -36,6 +37,9 @@ var (
 // adds the Content-Length.
 func writeBody(c *gin.Context, status int, ctype []string, body []byte) {
 	c.Writer.Header()["Content-Type"] = ctype
+	// Stated, so that a HEAD answer gives the GET's length for any size
+	// (net/http counts a body itself only when it fits one small write).
+	c.Writer.Header()["Content-Length"] = []string{strconv.Itoa(len(body))}
 	c.Writer.WriteHeader(status)
 	_, _ = c.Writer.Write(body)
 }

@@ -1,6 +1,7 @@
 package server
 
 import (
+	"errors"
 	"io"
 	"log/slog"
 	"net/http"
@@ -14,6 +15,7 @@ import (
 	"github.com/gin-gonic/gin"
 
 	"steamcell/fn/units"
+	"steamcell/server/web"
 )
 
 func init() {
@@ -84,6 +86,8 @@ type Server struct {
 	stopping chan struct{} // closed by StopStreams
 	stopOnce sync.Once
 	allow    map[string]string // route -> the methods it answers, for Allow
+	page     http.Handler      // the browser page (server/web)
+	assets   http.Handler      // its scripts and styles
 }
 
 // New returns a server set up by cfg.
@@ -108,6 +112,11 @@ func New(cfg Config) *Server {
 		bulk: make(chan struct{}, cfg.MaxBulk), stopping: make(chan struct{})}
 	if cfg.Token != "" {
 		s.token = []byte(cfg.Token)
+	}
+	if page, assets, err := web.Handler(Caution, cfg.Version); err == nil {
+		s.page, s.assets = page, assets
+	} else {
+		log.Error("page not built", slog.String("error", err.Error()))
 	}
 	s.engine = s.routes()
 	return s
@@ -162,6 +171,7 @@ type route struct {
 	method   string
 	path     string // in gin's syntax: "/state/:property"
 	handlers []gin.HandlerFunc
+	page     bool // the browser page, not described in openapi.json
 }
 
 // table is the one list of the server's routes: the router, the names of
@@ -169,20 +179,41 @@ type route struct {
 func (s *Server) table() []route {
 	h := func(hs ...gin.HandlerFunc) []gin.HandlerFunc { return hs }
 	return []route{
-		{"GET", "/state", h(s.getState)},
-		{"GET", "/state/status", h(s.getStateStatus)},
-		{"GET", "/state/:property", h(s.getStateProperty)},
-		{"GET", "/saturation", h(s.getSaturation)},
-		{"GET", "/saturation/:property", h(s.getSaturationProperty)},
-		{"GET", "/process/:kind", h(s.getProcess)},
-		{"GET", "/process/:kind/:result", h(s.getProcessResult)},
-		{"POST", "/batch", h(s.limitBulk, s.postBatch)},
-		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook)},
-		{"GET", "/openapi.json", h(s.getOpenAPI)},
-		{"GET", "/healthz", h(s.getHealth)},
-		{"GET", "/readyz", h(s.getReady)},
-		{"GET", "/metrics", h(s.getMetrics)},
+		{"GET", "/state", h(s.getState), false},
+		{"GET", "/state/status", h(s.getStateStatus), false},
+		{"GET", "/state/:property", h(s.getStateProperty), false},
+		{"GET", "/saturation", h(s.getSaturation), false},
+		{"GET", "/saturation/:property", h(s.getSaturationProperty), false},
+		{"GET", "/process/:kind", h(s.getProcess), false},
+		{"GET", "/process/:kind/:result", h(s.getProcessResult), false},
+		{"POST", "/batch", h(s.limitBulk, s.postBatch), false},
+		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook), false},
+		{"GET", "/openapi.json", h(s.getOpenAPI), false},
+		{"GET", "/healthz", h(s.getHealth), false},
+		{"GET", "/readyz", h(s.getReady), false},
+		{"GET", "/metrics", h(s.getMetrics), false},
+		{"GET", "/diagram/:file", h(s.getDiagram), false},
+		{"POST", "/diagram/:file", h(s.getDiagram), false},
+		{"GET", "/table", h(s.getTable), false},
+		{"GET", "/", h(s.getPage), true},
+		{"GET", "/web/*file", h(s.getAsset), true},
 	}
+}
+
+// getPage serves the page (server/web), its assets getAsset.
+//
+// GET /
+func (s *Server) getPage(c *gin.Context) { s.servePage(c, s.page) }
+
+// GET /web/{file}
+func (s *Server) getAsset(c *gin.Context) { s.servePage(c, s.assets) }
+
+func (s *Server) servePage(c *gin.Context, h http.Handler) {
+	if h == nil {
+		s.fail(c, errors.New("the page was not built"))
+		return
+	}
+	h.ServeHTTP(c.Writer, c.Request)
 }
 
 // routeNames are the routes as metrics and logs name them ("/state/:property"
@@ -191,6 +222,7 @@ func (s *Server) table() []route {
 var (
 	routeNames = map[string]string{}
 	routeList  string
+	apiPaths   []string
 )
 
 func init() {
@@ -198,7 +230,12 @@ func init() {
 	for _, rt := range (&Server{}).table() {
 		routeNames[rt.path] = openAPIPath(rt.path)
 		l = append(l, rt.method+" "+openAPIPath(rt.path))
+		if !rt.page {
+			apiPaths = append(apiPaths, openAPIPath(rt.path))
+		}
 	}
+	slices.Sort(apiPaths)
+	apiPaths = slices.Compact(apiPaths)
 	routeList = strings.Join(l, ", ")
 }
 
@@ -206,7 +243,7 @@ func init() {
 func openAPIPath(path string) string {
 	parts := strings.Split(path, "/")
 	for i, p := range parts {
-		if strings.HasPrefix(p, ":") {
+		if strings.HasPrefix(p, ":") || strings.HasPrefix(p, "*") {
 			parts[i] = "{" + p[1:] + "}"
 		}
 	}
@@ -232,13 +269,6 @@ func (s *Server) noMethod(c *gin.Context) {
 	s.fail(c, errorf(ErrMethod, "", "%s does not take %s", clean(c.Request.URL.Path, 80), clean(c.Request.Method, 10)))
 }
 
-// RoutePaths lists the paths of the route table as openapi.json writes
-// them, sorted, each once.
-func RoutePaths() []string {
-	var paths []string
-	for _, n := range routeNames {
-		paths = append(paths, n)
-	}
-	slices.Sort(paths)
-	return slices.Compact(paths)
-}
+// RoutePaths lists the paths of the route table that openapi.json
+// describes (all but the page's), as it writes them, sorted, each once.
+func RoutePaths() []string { return slices.Clone(apiPaths) }

@@ -141,6 +141,8 @@ func TestREADMEExamples(t *testing.T) {
 					kind = "curl"
 				case strings.HasPrefix(line, "steamcell state "):
 					kind = "state"
+				case strings.HasPrefix(line, "steamcell table "):
+					kind = "table"
 				}
 				if kind == "" {
 					continue
