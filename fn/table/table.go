@@ -274,7 +274,7 @@ func gridCount(spec Spec, d units.Dim, opt point.Options, per int) ([]float64, e
 		return nil, err
 	}
 	stepV, su, err := units.ParseUnit(spec.Step, d, uo("step"))
-	if errors.Is(err, units.ErrNegativeAbsolute) {
+	if errors.Is(err, units.ErrNegativeAbsolute) || errors.Is(err, units.ErrPressureNotPositive) {
 		err = errorf(ErrBadRange, "step", "step=%s: the step must be above zero (a falling table runs from the high end: from=20bar&to=1bar&step=1bar)", clip(spec.Step))
 	}
 	if err != nil {
