@@ -461,3 +461,67 @@ func stripUnit(s string) string {
 	}
 	return s
 }
+
+// header is what the top of a sheet says: the header row, the row of
+// units under it, and the input pairs with their units.
+type header struct {
+	row     int // 1-based; 0 when there is none (a column map without headers)
+	unitRow int // 1-based; 0 when there is none
+	pairs   []pairSpec
+}
+
+// readHeader interprets the top rows of a sheet (top[i] is row i+1, the
+// cells as text) by the rules of the package doc, or by opt.Map and
+// opt.HeaderRow. It is the one place the header rules are applied.
+func readHeader(sheet string, top [][]string, opt Options) (header, error) {
+	var h header
+	if opt.Map != "" {
+		pairs, err := parseMap(sheet, opt.Map)
+		if err != nil {
+			return h, err
+		}
+		h.row = opt.HeaderRow
+		if h.row == 0 {
+			h.row = mapHeaderRow(top, pairs)
+		}
+		var row []string
+		if h.row > 0 && h.row <= len(top) {
+			row = top[h.row-1]
+		}
+		completeMapped(pairs, row)
+		var cols []inputCol
+		for _, p := range pairs {
+			cols = append(cols, p.in[:]...)
+		}
+		if h.unitRow, err = unitsBelow(sheet, top, h.row, cols); err != nil {
+			return h, err
+		}
+		for i := range pairs {
+			copy(pairs[i].in[:], cols[2*i:2*i+2])
+		}
+		h.pairs = pairs
+		return h, nil
+	}
+	var cols []inputCol
+	if opt.HeaderRow > 0 {
+		h.row = opt.HeaderRow
+		if h.row <= len(top) {
+			cols = headerInputs(top[h.row-1])
+		}
+		if len(cols) < 2 {
+			return h, &Error{Kind: ErrNoInputs, Sheet: sheet, Msg: fmt.Sprintf("sheet %q: row %d does not name two inputs. %s",
+				sheet, h.row, noInputsMessage(sheet, top))}
+		}
+	} else {
+		h.row, cols = findHeader(top)
+		if h.row == 0 {
+			return h, &Error{Kind: ErrNoInputs, Sheet: sheet, Msg: noInputsMessage(sheet, top)}
+		}
+	}
+	var err error
+	if h.unitRow, err = unitsBelow(sheet, top, h.row, cols); err != nil {
+		return h, err
+	}
+	h.pairs, err = pairUp(sheet, h.row, cols)
+	return h, err
+}

@@ -207,16 +207,16 @@ func TestSheetLimits(t *testing.T) {
 	}
 }
 
-// TestMaxCells: a sheet beyond the cell bound is refused before it is
-// loaded.
-func TestMaxCells(t *testing.T) {
+// TestMemory: a workbook whose parts loaded whole exceed half the memory
+// bound is refused before anything is written; the rows do not count.
+func TestMemory(t *testing.T) {
 	o := opts()
-	o.MaxCells = 20 // 3 rows × (3 data + 6 result columns) = 27 cells
+	o.Memory = 2 << 10 // the parts of the small workbook take a few kilobytes
 	err := fillErr(t, goodWorkbook(t), "good.xlsx", o)
-	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "27 cells") {
-		t.Errorf("error %v, want ErrTooLarge counting 27 cells", err)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "in memory") {
+		t.Errorf("error %v, want ErrTooLarge saying what memory holds", err)
 	}
-	o.MaxCells = 27
+	o.Memory = 1 << 20
 	fillBytes(t, goodWorkbook(t), "good.xlsx", o)
 }
 
