@@ -1,6 +1,7 @@
 package workbook
 
 import (
+	"bufio"
 	"bytes"
 	"fmt"
 	"regexp"
@@ -19,12 +20,25 @@ type cellData struct {
 	content bool // holds a value, a formula or inline text
 }
 
-// parseCell reads a whole <c> element (raw, from its start tag to its end
+// cellParser reads cells; it keeps its scanner and buffer from cell to
+// cell.
+type cellParser struct {
+	br bytes.Reader
+	sc *scanner
+}
+
+// parse reads a whole <c> element (raw, from its start tag to its end
 // tag, or one empty tag). col is the column it has when it names none: one
 // after the cell before it.
-func parseCell(raw []byte, col int) (cellData, error) {
+func (cp *cellParser) parse(raw []byte, col int) (cellData, error) {
 	c := cellData{col: col}
-	sc := newScanner(bytes.NewReader(raw))
+	cp.br.Reset(raw)
+	if cp.sc == nil {
+		cp.sc = &scanner{r: bufio.NewReaderSize(&cp.br, 4096)}
+	} else {
+		cp.sc.r.Reset(&cp.br)
+	}
+	sc := cp.sc
 	first, err := sc.next()
 	if err != nil {
 		return c, err

@@ -168,14 +168,14 @@ func writeFile(ctx context.Context, r *run, path string, force bool) error {
 	if err := tmp.Close(); err != nil {
 		return fmt.Errorf("write %s: %w", tmpName, err)
 	}
+	if r.progress != nil {
+		r.progress("saving "+filepath.Base(path), 0, -1)
+	}
 	if err := ctx.Err(); err != nil {
 		return err
 	}
 	if err := os.Chmod(tmpName, 0o644); err != nil {
 		return fmt.Errorf("set the mode of %s: %w", tmpName, err)
-	}
-	if r.progress != nil {
-		r.progress("saving "+filepath.Base(path), 0, -1)
 	}
 	if !force {
 		err := os.Link(tmpName, path)
@@ -676,9 +676,6 @@ func (s *sheetRun) setPairs() {
 			o := &s.outs[k]
 			c := &s.outs2[i*width+1+k]
 			c.out = o
-			if o.code != "" {
-				c.style = s.styles.num[o.code]
-			}
 		}
 	}
 }

@@ -57,7 +57,7 @@ type sheetRun struct {
 }
 
 // outCell is a result column: its letter, the output (nil for the status)
-// and its number format.
+// and the style of its numbers, set once the styles are appended.
 type outCell struct {
 	letter string
 	out    *output
@@ -103,7 +103,8 @@ type walker struct {
 	decided bool
 	top     []topRow
 	cells   []cellData // the kept cells of the current row
-	rows    int        // rows seen, for progress and cancellation
+	cp      cellParser
+	rows    int // rows seen, for progress and cancellation
 
 	// pass 2
 	colsDone   bool
@@ -264,7 +265,7 @@ func (w *walker) walk(r io.Reader, out io.Writer) error {
 						}
 					}
 				}
-				c, err := parseCell(cellRaw, col+1)
+				c, err := w.cp.parse(cellRaw, col+1)
 				if err != nil {
 					return damaged(s.pkg.base, fmt.Errorf("sheet %q row %d: %w", s.name, row, err))
 				}

@@ -58,6 +58,13 @@ func (r *run) plan(ctx context.Context) error {
 	if err != nil {
 		return damaged(p.base, fmt.Errorf("the style part: %w", err))
 	}
+	for _, s := range r.sheets {
+		for i := range s.outs2 {
+			if o := s.outs2[i].out; o != nil && o.code != "" {
+				s.outs2[i].style = r.styles.num[o.code]
+			}
+		}
+	}
 	if p.styPart != "" && p.file(p.styPart) != nil {
 		r.put(p.styPart, true, "", newStyles)
 	} else {
