@@ -10,6 +10,7 @@ import (
 	"regexp"
 	"strings"
 	"testing"
+	"unicode/utf16"
 
 	"github.com/xuri/excelize/v2"
 
@@ -312,4 +313,71 @@ func TestUnitRowWithMap(t *testing.T) {
 		t.Errorf("sheet %+v; want header row 1, units in row 2, 1 row ok", s)
 	}
 	verifyRow(t, f, "Data", 3, [2]string{"6", "330"}, [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}, outCols{"D", "E", "F", "G", "H", "I"})
+}
+
+// utf16Of encodes s as UTF-16 with a byte-order mark.
+func utf16Of(s string, bigEndian bool) []byte {
+	b := []byte{0xFF, 0xFE}
+	if bigEndian {
+		b = []byte{0xFE, 0xFF}
+	}
+	for _, u := range utf16.Encode([]rune(s)) {
+		if bigEndian {
+			b = append(b, byte(u>>8), byte(u))
+		} else {
+			b = append(b, byte(u), byte(u>>8))
+		}
+	}
+	return b
+}
+
+// TestCSVEncodings: every line end, encoding and separator a plant logger
+// or an office program writes is read into the same three points, or is
+// refused with a message (issue 12: CR-only line ends gave "0 rows" and
+// exit 0; UTF-16 failed every row with exit 0).
+func TestCSVEncodings(t *testing.T) {
+	rows := func(sep, nl string) string {
+		return strings.Join([]string{
+			"Point" + sep + "Drum pressure [barg]" + sep + "Steam temperature [°C]",
+			"K1" + sep + "41.37" + sep + "415.7",
+			"K2" + sep + "12.5" + sep + "260",
+			"K3" + sep + "6" + sep + "330", ""}, nl)
+	}
+	ins := [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}
+	for _, tc := range []struct {
+		name string
+		data []byte
+	}{
+		{"LF, comma", []byte(rows(",", "\n"))},
+		{"CRLF, comma", []byte(rows(",", "\r\n"))},
+		{"CR only, comma", []byte(rows(",", "\r"))},
+		{"UTF-8 BOM, semicolon", append([]byte("\xEF\xBB\xBF"), rows(";", "\r\n")...)},
+		{"tab", []byte(rows("\t", "\n"))},
+		{"UTF-16LE BOM, tab", utf16Of(rows("\t", "\r\n"), false)},
+		{"UTF-16BE BOM, comma, CR only", utf16Of(rows(",", "\r"), true)},
+		{"semicolon, decimal commas", []byte(strings.ReplaceAll(strings.ReplaceAll(rows(";", "\n"), "41.37", "41,37"), "12.5", "12,5"))},
+	} {
+		f, sum := fillBytes(t, tc.data, "log.csv", opts())
+		if sum.Rows != 3 || sum.OK != 3 {
+			t.Errorf("%s: %d rows, %d ok, want 3 and 3", tc.name, sum.Rows, sum.OK)
+			continue
+		}
+		if n := verifySheet(t, f, "log", 2, 4, ins, outCols{"D", "E", "F", "G", "H", "I"}); n != 3 {
+			t.Errorf("%s: %d rows verified, want 3", tc.name, n)
+		}
+	}
+	for _, tc := range []struct {
+		name string
+		data []byte
+		say  string
+	}{
+		{"UTF-16 without a mark", utf16Of(rows(",", "\n"), false)[2:], "UTF-16 text without a byte-order mark"},
+		{"UTF-32", append([]byte{0xFF, 0xFE, 0, 0}, 'P', 0, 0, 0), "UTF-32"},
+		{"UTF-16 cut in a character", append(utf16Of(rows(",", "\n"), false), 'x'), "cut off"},
+	} {
+		err := fillErr(t, tc.data, "log.csv", opts())
+		if !errors.Is(err, workbook.ErrNotWorkbook) || !strings.Contains(err.Error(), tc.say) {
+			t.Errorf("%s: %v, want ErrNotWorkbook saying %q", tc.name, err, tc.say)
+		}
+	}
 }

@@ -223,8 +223,12 @@ func writeFillReport(w io.Writer, output string, sum *workbook.Summary) error {
 			}
 			cols = append(cols, c)
 		}
-		fmt.Fprintf(w, "sheet %q: inputs %s, header row %d: %d rows, %d ok, %d flagged, %d failed, %d blank skipped\n",
-			s.Name, strings.Join(cols, "; "), s.HeaderRow, s.Rows, s.OK, s.Flagged, s.Failed, s.Blank)
+		agg := ""
+		if s.Aggregate > 0 {
+			agg = fmt.Sprintf(", %d aggregate (not test points)", s.Aggregate)
+		}
+		fmt.Fprintf(w, "sheet %q: inputs %s, header row %d: %d rows, %d ok, %d flagged, %d failed, %d blank skipped%s\n",
+			s.Name, strings.Join(cols, "; "), s.HeaderRow, s.Rows, s.OK, s.Flagged, s.Failed, s.Blank, agg)
 		if s.Note != "" {
 			fmt.Fprintf(w, "  note: %s\n", s.Note)
 		}
