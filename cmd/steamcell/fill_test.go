@@ -11,7 +11,7 @@ import (
 
 // writeTestBook writes a small workbook of p,T readings for the fill
 // command.
-func writeTestBook(t *testing.T, path string) {
+func writeTestBook(t testing.TB, path string) {
 	t.Helper()
 	f := excelize.NewFile()
 	defer f.Close()
