@@ -129,6 +129,23 @@ func TestDemo(t *testing.T) {
 	if sum.SummarySheet != "steamcell summary" {
 		t.Errorf("summary sheet %q", sum.SummarySheet)
 	}
+	// The flagged and failed points link to their status cells.
+	rows, err := f.GetRows(sum.SummarySheet)
+	mustf(t, err, "read the summary")
+	linked := 0
+	for i, r := range rows {
+		if len(r) > 1 && r[0] == "Boiler 2 acceptance, row 25" {
+			cell, _ := excelize.CoordinatesToCellName(2, i+1)
+			ok, target, err := f.GetCellHyperLink(sum.SummarySheet, cell)
+			if err != nil || !ok || target != "'Boiler 2 acceptance'!H25" {
+				t.Errorf("summary %s links to %q (%v, %v), want 'Boiler 2 acceptance'!H25", cell, target, ok, err)
+			}
+			linked++
+		}
+	}
+	if linked != 1 {
+		t.Errorf("summary lists the failed point of Boiler 2 %d times, want once", linked)
+	}
 	text := summaryText(t, f, sum.SummarySheet)
 	for _, want := range append([]string{
 		"Input file | kestrel_bay_tests.xlsx",
