@@ -681,6 +681,20 @@ func checkLayout(t *testing.T, _, out []byte) {
 	if got, _ := f.GetCellValue("Readings", "I2"); !regexp.MustCompile(`^\d+\.\d\d$`).MatchString(got) {
 		t.Errorf("I2 shows %q, want h with two decimals", got)
 	}
+	// Statuses are colour-coded: ok and failed in fills of their own.
+	fillOf := func(cell string) string {
+		id, err := f.GetCellStyle("Readings", cell)
+		mustf(t, err, "style of %s", cell)
+		st, err := f.GetStyle(id)
+		mustf(t, err, "style %d", id)
+		if len(st.Fill.Color) == 0 {
+			return ""
+		}
+		return st.Fill.Color[0]
+	}
+	if ok, failed := fillOf("H2"), fillOf("H3"); ok == "" || failed == "" || ok == failed {
+		t.Errorf("status fills: ok %q, failed %q; want two colours", ok, failed)
+	}
 	w, _ := f.GetColWidth("Readings", "H")
 	if w < float64(len("not a number in C3")) {
 		t.Errorf("status column width %g cuts off %q", w, "not a number in C3")

@@ -381,3 +381,38 @@ func TestCSVEncodings(t *testing.T) {
 		}
 	}
 }
+
+// TestDigits: the number formats of the results follow Options.Digits,
+// by property and for all, and the stored values keep every digit.
+func TestDigits(t *testing.T) {
+	o := opts()
+	o.Digits = map[string]int{"h": 1, "": 3}
+	f, _ := fillBytes(t, goodWorkbook(t), "good.xlsx", o)
+	code := func(cell string) string {
+		id, err := f.GetCellStyle("Data", cell)
+		mustf(t, err, "style of %s", cell)
+		st, err := f.GetStyle(id)
+		mustf(t, err, "style %d", id)
+		if st.CustomNumFmt == nil {
+			return ""
+		}
+		return *st.CustomNumFmt
+	}
+	header := func(col string) string { return raw(t, f, "Data", col+"1") }
+	for _, col := range []string{"E", "F", "G"} {
+		want := "0.000"
+		if strings.HasPrefix(header(col), "h ") {
+			want = "0.0"
+		}
+		if got := code(col + "2"); got != want {
+			t.Errorf("%s (%s) number format %q, want %q", col, header(col), got, want)
+		}
+	}
+	if v := raw(t, f, "Data", "E2"); len(v) < 10 {
+		t.Errorf("E2 stores %q, want the full value", v)
+	}
+	o.Digits = map[string]int{"h": 16}
+	if err := fillErr(t, goodWorkbook(t), "good.xlsx", o); !errors.Is(err, workbook.ErrBadOption) {
+		t.Errorf("16 digits: %v, want ErrBadOption", err)
+	}
+}
