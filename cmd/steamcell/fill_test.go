@@ -2,8 +2,8 @@ package main
 
 import (
 	"os"
-	"reflect"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
