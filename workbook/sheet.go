@@ -250,6 +250,23 @@ func (w *walker) walk(r io.Reader, out io.Writer) error {
 				}
 			case depth == 3 && inData && name == "c":
 				cellRaw = append(cellRaw[:0], t.raw...)
+				if t.kind == tokEmpty {
+					// An empty cell (a style and no value, as layouts
+					// repeat them by the thousand) needs no parser.
+					c := cellData{col: col + 1}
+					if ref, ok := attr(t.raw, "r"); ok {
+						cc, _, ok := splitRef(ref)
+						if !ok {
+							return damaged(s.pkg.base, fmt.Errorf("sheet %q row %d: cell reference %q", s.name, row, ref))
+						}
+						c.col = cc
+					}
+					col = c.col
+					if w.out != nil {
+						w.cell(&c, cellRaw)
+					}
+					continue
+				}
 				if t.kind == tokStart {
 					for d := 1; d > 0; {
 						ct, err := sc.next()

@@ -116,7 +116,7 @@ func TestWorkbookServeChild(t *testing.T) {
 		t.Skip("the child process of BenchmarkServeWorkbookMemory")
 	}
 	app := NewApp(strings.NewReader(""), os.Stdout, os.Stderr)
-	code := app.Run([]string{"serve", "--addr", "127.0.0.1:0", "--workbook-memory", fmt.Sprint(memoryBound>>20) + "MiB", "--max-workbook", "256MiB", "--log-format", "json"})
+	code := app.Run([]string{"serve", "--addr", "127.0.0.1:0", "--workbook-memory", fmt.Sprint(memoryBound>>20) + "MiB", "--max-workbook", "256MiB", "--write-timeout", "20m", "--log-format", "json"})
 	app.Close()
 	// The child reads its own peak (VmHWM): a child's rusage on Linux also
 	// counts the memory of the parent it was started from.
