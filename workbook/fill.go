@@ -540,8 +540,7 @@ func (s *sheetRun) first(ctx context.Context) error {
 	if s.relsXML, err = s.pkg.readIfThere(relsPath(s.part)); err != nil {
 		return err
 	}
-	s.outs2 = make([]outCell, 0)
-	s.prepareOutputs()
+	s.styles = s.run.styleTable()
 	s.calc = map[[2]int]string{}
 	if s.progress != nil {
 		s.progress("reading "+s.name, 0, -1)
@@ -575,12 +574,6 @@ func (s *sheetRun) first(ctx context.Context) error {
 	}
 	ss.Filled = true
 	return nil
-}
-
-// prepareOutputs lists the result columns, before their place is known.
-func (s *sheetRun) prepareOutputs() {
-	s.styles = s.run.styleTable()
-	s.nOut = 0
 }
 
 // styleTable returns the run's table of styles, made once.

@@ -600,10 +600,9 @@ func (w *walker) writeCols() {
 	}
 	w.colsDone = true
 	s := w.s
-	for i, c := range s.outs2 {
+	for i := range s.outs2 {
 		n := s.firstOut + i + 1
 		width := min(max(s.widths[i], 8), 120)
-		_ = c
 		w.emit([]byte(fmt.Sprintf(`<%scol min="%d" max="%d" width="%.2f" customWidth="1"/>`, s.mainPrefix, n, n, width)))
 	}
 }
