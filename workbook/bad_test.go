@@ -4,6 +4,7 @@ import (
 	"archive/zip"
 	"bytes"
 	"errors"
+	"fmt"
 	"io"
 	"strings"
 	"testing"
@@ -290,5 +291,20 @@ func TestLyingZip(t *testing.T) {
 		if !errors.Is(err, workbook.ErrNotWorkbook) || !strings.Contains(err.Error(), "damaged") {
 			t.Errorf("%s lies: error %v, want ErrNotWorkbook saying damaged", tc.part, err)
 		}
+	}
+}
+
+// TestManyParts: a package of more parts than the memory bound holds the
+// directory of is refused before its directory is read.
+func TestManyParts(t *testing.T) {
+	parts := map[string][]byte{"xl/workbook.xml": []byte("<workbook/>")}
+	for i := range 3000 {
+		parts[fmt.Sprintf("customXml/item%d.xml", i)] = []byte("<n/>")
+	}
+	o := opts()
+	o.Memory = 4 << 20 // half of it holds 2048 parts
+	err := fillErr(t, zipOf(t, parts), "parts.xlsx", o)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "3001 parts") {
+		t.Errorf("error %v, want ErrTooLarge counting 3001 parts", err)
 	}
 }
