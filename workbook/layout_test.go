@@ -208,17 +208,31 @@ func TestSheetLimits(t *testing.T) {
 	}
 }
 
-// TestMemory: a workbook whose parts loaded whole exceed half the memory
-// bound is refused before anything is written; the rows do not count.
+// TestMemory: a workbook whose parts loaded whole, or whose directory,
+// exceed half the memory bound is refused before anything is written;
+// the rows do not count.
 func TestMemory(t *testing.T) {
 	o := opts()
-	o.Memory = 2 << 10 // the parts of the small workbook take a few kilobytes
+	o.Memory = 2 << 10 // half of it holds the directory of one part
 	err := fillErr(t, goodWorkbook(t), "good.xlsx", o)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "parts") {
+		t.Errorf("error %v, want ErrTooLarge counting the parts", err)
+	}
+	// 300 notes of 200 characters: 60 kB of shared strings.
+	rows := [][]any{{"Point", "P [bar]", "T [°C]", "Note"}}
+	for i := range 300 {
+		rows = append(rows, []any{"A", 10.0, 300.0, fmt.Sprintf("%03d %s", i, strings.Repeat("steady ", 28))})
+	}
+	data := save(t, sheetOf(t, rows...))
+	o.Memory = 96 << 10
+	err = fillErr(t, data, "notes.xlsx", o)
 	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "in memory") {
 		t.Errorf("error %v, want ErrTooLarge saying what memory holds", err)
 	}
 	o.Memory = 1 << 20
-	fillBytes(t, goodWorkbook(t), "good.xlsx", o)
+	if _, sum := fillBytes(t, data, "notes.xlsx", o); sum.Rows != 300 {
+		t.Errorf("%d rows filled under 1 MiB, want 300", sum.Rows)
+	}
 }
 
 // TestHeaderRow: a header row below the rows searched is named with
@@ -414,5 +428,31 @@ func TestDigits(t *testing.T) {
 	o.Digits = map[string]int{"h": 16}
 	if err := fillErr(t, goodWorkbook(t), "good.xlsx", o); !errors.Is(err, workbook.ErrBadOption) {
 		t.Errorf("16 digits: %v, want ErrBadOption", err)
+	}
+}
+
+// TestEmptyStyledCells: empty cells that carry a style (a layout's grid)
+// in the result columns give way to the results, which keep the row's
+// cells in column order and take the fill's own styles.
+func TestEmptyStyledCells(t *testing.T) {
+	f := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{10.0, 300.0}, []any{20.0, 400.0})
+	pct, err := f.NewStyle(&excelize.Style{NumFmt: 10})
+	mustf(t, err, "style")
+	mustf(t, f.SetCellStyle("Data", "C2", "K3", pct), "style the empty cells")
+	out, sum := fillBytes(t, save(t, f), "grid.xlsx", opts())
+	if sum.OK != 2 {
+		t.Fatalf("%d ok, want 2", sum.OK)
+	}
+	if n := verifySheet(t, out, "Data", 2, 3, [2]in{{"A", fn.Pressure, "bar"}, {"B", fn.Temperature, "°C"}}, outCols{"C", "D", "E", "F", "G", "H"}); n != 2 {
+		t.Errorf("%d rows verified, want 2", n)
+	}
+	id, _ := out.GetCellStyle("Data", "D2")
+	st, err := out.GetStyle(id)
+	mustf(t, err, "style of D2")
+	if st.NumFmt == 10 || st.CustomNumFmt == nil {
+		t.Errorf("D2 (h) has the grid's percent format, want the fill's own")
+	}
+	if id, _ := out.GetCellStyle("Data", "K2"); id != pct {
+		t.Errorf("K2, past the results, has style %d, want the grid's %d", id, pct)
 	}
 }
