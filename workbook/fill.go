@@ -205,7 +205,7 @@ func prepare(ctx context.Context, ra io.ReaderAt, size int64, name string, opt O
 	if err != nil {
 		return nil, err
 	}
-	ra, size, note, err := openInput(ra, size, name, r.unzipLimit)
+	ra, size, note, err := openInput(ra, size, name, r.unzipLimit, r.memory)
 	if err != nil {
 		return r, err
 	}

@@ -34,8 +34,9 @@ func isCSVName(name string) bool {
 // openInput looks at the start of the input and returns the package to
 // fill: the input itself when it is a zip package, a package made from
 // the text when it is CSV. note says how CSV text was read, when that is
-// worth saying.
-func openInput(ra io.ReaderAt, size int64, name string, limit int64) (io.ReaderAt, int64, string, error) {
+// worth saying. limit bounds what the input unpacks to, memory what the
+// fill may hold.
+func openInput(ra io.ReaderAt, size int64, name string, limit, memory int64) (io.ReaderAt, int64, string, error) {
 	base := filepath.Base(name)
 	if size == 0 {
 		return nil, 0, "", &Error{Kind: ErrNotWorkbook, Msg: fmt.Sprintf("%s is empty", base)}
@@ -57,8 +58,10 @@ func openInput(ra io.ReaderAt, size int64, name string, limit int64) (io.ReaderA
 		return nil, 0, "", &Error{Kind: ErrNotWorkbook, Msg: fmt.Sprintf(
 			"%s is an .xls workbook (the older binary format); open it and save it as .xlsx, then fill that", base)}
 	case isCSVName(name):
-		if size > limit {
-			return nil, 0, "", &Error{Kind: ErrTooLarge, Msg: fmt.Sprintf("%s is %s, more than the limit of %s; split it", base, byteSize(uint64(size)), byteSize(uint64(limit)))}
+		// CSV text is decoded and made into a package in memory, a few
+		// copies of it at once: an eighth of the memory bound.
+		if textLimit := min(limit, memory/8); size > textLimit {
+			return nil, 0, "", &Error{Kind: ErrTooLarge, Msg: fmt.Sprintf("%s is %s, more than the limit of %s for CSV text; split it", base, byteSize(uint64(size)), byteSize(uint64(textLimit)))}
 		}
 		data := make([]byte, size)
 		if _, err := ra.ReadAt(data, 0); err != nil && err != io.EOF {

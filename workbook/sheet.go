@@ -41,6 +41,7 @@ type sheetRun struct {
 	lastRow    int // last data row
 	maxRow     int // last row of the sheet
 	minCol     int // first column of the dimension (0-based)
+	minRow     int // first row of the dimension; 0 when it names none
 	pending    []dataRow
 	calc       map[[2]int]string // (row, col) → value calculated for a formula without a stored result
 	widths     []float64         // per result column
@@ -174,8 +175,8 @@ func (w *walker) walk(r io.Reader, out io.Writer) error {
 						continue
 					}
 					if ref, ok := attr(t.raw, "ref"); ok {
-						if c, _, ok := splitRef(strings.Split(ref, ":")[0]); ok {
-							s.minCol = c
+						if c, r, ok := splitRef(strings.Split(ref, ":")[0]); ok {
+							s.minCol, s.minRow = c, r
 						}
 					}
 				case "cols":
@@ -574,7 +575,11 @@ func (s *sheetRun) noteCol(tag []byte) {
 // dimension is the sheet's used range with the results.
 func (s *sheetRun) dimension() string {
 	last := max(s.maxRow, 1)
-	return cellName(s.minCol, 1) + ":" + cellName(s.firstOut+s.nOut-1, last)
+	first := max(min(s.minRow, s.headerRow), 1)
+	if s.minRow == 0 || s.headerRow == 0 {
+		first = max(s.minRow, 1)
+	}
+	return cellName(s.minCol, first) + ":" + cellName(s.firstOut+s.nOut-1, last)
 }
 
 // pass2 writes the sheet with its results to out.
