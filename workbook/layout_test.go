@@ -3,6 +3,7 @@ package workbook_test
 import (
 	"archive/zip"
 	"bytes"
+	"context"
 	"errors"
 	"fmt"
 	"io"
@@ -454,5 +455,30 @@ func TestEmptyStyledCells(t *testing.T) {
 	}
 	if id, _ := out.GetCellStyle("Data", "K2"); id != pct {
 		t.Errorf("K2, past the results, has style %d, want the grid's %d", id, pct)
+	}
+}
+
+// TestPrefixedSheet: a sheet written with a prefix on the main namespace
+// (<x:row>, as some generators write it) gets result cells with the same
+// prefix.
+func TestPrefixedSheet(t *testing.T) {
+	data := patchPackage(t, goodWorkbook(t), func(p map[string][]byte) {
+		sh := "xl/worksheets/sheet1.xml"
+		b := regexp.MustCompile(`<(/?)([A-Za-z])`).ReplaceAll(p[sh], []byte("<${1}x:$2"))
+		b = replaceOnce(t, b, `xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"`, `xmlns:x="http://schemas.openxmlformats.org/spreadsheetml/2006/main"`)
+		p[sh] = b
+	})
+	var out bytes.Buffer
+	if _, err := workbook.Fill(context.Background(), bytes.NewReader(data), "x.xlsx", opts(), &out); err != nil {
+		t.Fatal(err)
+	}
+	zr, err := zip.NewReader(bytes.NewReader(out.Bytes()), int64(out.Len()))
+	mustf(t, err, "read the output")
+	sheet := partBytes(t, zr, "xl/worksheets/sheet1.xml")
+	if _, err := parseTree(sheet); err != nil {
+		t.Fatalf("the filled sheet is not XML: %v", err)
+	}
+	if !bytes.Contains(sheet, []byte(`<x:c r="D2" s=`)) || bytes.Contains(sheet, []byte("<c ")) {
+		t.Errorf("result cells without the sheet's prefix: %.600s", sheet[bytes.Index(sheet, []byte("sheetData")):])
 	}
 }
