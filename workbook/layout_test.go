@@ -9,6 +9,7 @@ import (
 	"io"
 	"math/rand"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 	"unicode/utf16"
@@ -480,5 +481,34 @@ func TestPrefixedSheet(t *testing.T) {
 	}
 	if !bytes.Contains(sheet, []byte(`<x:c r="D2" s=`)) || bytes.Contains(sheet, []byte("<c ")) {
 		t.Errorf("result cells without the sheet's prefix: %.600s", sheet[bytes.Index(sheet, []byte("sheetData")):])
+	}
+}
+
+// TestAggregateRows: a row whose inputs all aggregate their own columns
+// is solved and marked, and not counted; a formula of another kind, or an
+// aggregate beside a reading, is a test point.
+func TestAggregateRows(t *testing.T) {
+	f := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{10.0, 300.0}, []any{20.0, 400.0})
+	for cell, fx := range map[string]string{
+		"A4": "MIN(A2:A3)", "B4": "MAX(B2:B3)", // aggregate row
+		"A5": "SUM(A2:A3)", "B5": "_xlfn.AVERAGE(B$2:B$3)", // aggregate row
+		"A6": "A2*2", "B6": "AVERAGE(B2:B3)", // not: A6 is no aggregate
+		"A7": "AVERAGE(B2:B3)", // not: A7 averages another column, and B7 is a reading
+	} {
+		mustf(t, f.SetCellFormula("Data", cell, fx), "formula %s", cell)
+	}
+	mustf(t, f.SetCellValue("Data", "B7", 350.0), "set B7")
+	out, sum := fillBytes(t, save(t, f), "agg.xlsx", opts())
+	if sum.Aggregate != 2 || sum.Rows != 4 {
+		t.Errorf("%d aggregate rows, %d test points; want 2 and 4", sum.Aggregate, sum.Rows)
+	}
+	for row, want := range map[int]bool{4: true, 5: true, 6: false, 7: false} {
+		status := raw(t, out, "Data", "C"+strconv.Itoa(row))
+		if got := strings.HasPrefix(status, "aggregate row ("); got != want {
+			t.Errorf("row %d status %q; aggregate %v, want %v", row, status, got, want)
+		}
+	}
+	if got := raw(t, out, "Data", "C4"); !strings.Contains(got, "MIN/MAX of the column") {
+		t.Errorf("C4 = %q, want the aggregates named", got)
 	}
 }
