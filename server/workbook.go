@@ -25,8 +25,9 @@ type WorkbookOptions struct {
 
 // WorkbookFiller fills a workbook of test points with property, phase and
 // validity columns. in holds the file as uploaded; name is
-// its file name (for its type: .xlsx, or .csv read as a sheet); the filled
-// copy, an .xlsx workbook, is written to out. summary is any
+// its file name (for its type: .xlsx, .xlsm, or .csv read as a sheet);
+// the filled copy is written to out, an .xlsm for an .xlsm and an .xlsx
+// otherwise. summary is any
 // JSON-encodable report of what was done. Errors caused by the file or the
 // options should be wrapped with InputProblem (400); any other error is
 // answered as an internal error (500) and logged.
@@ -37,8 +38,22 @@ type WorkbookFiller interface {
 	Fill(ctx context.Context, in io.Reader, name string, opts WorkbookOptions, out io.Writer) (summary any, err error)
 }
 
-// xlsxType is the media type of an .xlsx workbook.
-const xlsxType = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
+// Media types of the filled workbook: an .xlsx, or a macro-enabled .xlsm,
+// which stays one.
+const (
+	xlsxType = "application/vnd.openxmlformats-officedocument.spreadsheetml.sheet"
+	xlsmType = "application/vnd.ms-excel.sheet.macroEnabled.12"
+)
+
+// filledName is the file name and media type of the filled copy of an
+// upload named name.
+func filledName(name string) (string, string) {
+	ext := path.Ext(name)
+	if strings.EqualFold(ext, ".xlsm") {
+		return strings.TrimSuffix(name, ext) + "_filled.xlsm", xlsmType
+	}
+	return strings.TrimSuffix(name, ext) + "_filled.xlsx", xlsxType
+}
 
 // maxSummaryHeader is the longest summary sent in the Steamcell-Summary
 // header; a longer one is left out.
@@ -93,7 +108,8 @@ func (s *Server) postWorkbook(c *gin.Context) {
 		s.fail(c, err)
 		return
 	}
-	disp := mime.FormatMediaType("attachment", map[string]string{"filename": strings.TrimSuffix(name, path.Ext(name)) + "_filled.xlsx"})
+	filename, mediaType := filledName(name)
+	disp := mime.FormatMediaType("attachment", map[string]string{"filename": filename})
 	if disp == "" {
 		disp = "attachment"
 	}
@@ -103,7 +119,7 @@ func (s *Server) postWorkbook(c *gin.Context) {
 			headers["Steamcell-Summary"] = h
 		}
 	}
-	c.DataFromReader(http.StatusOK, out.size, xlsxType, out.reader(), headers)
+	c.DataFromReader(http.StatusOK, out.size, mediaType, out.reader(), headers)
 }
 
 // asciiJSON escapes every non-ASCII character of a compact JSON text as

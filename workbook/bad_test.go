@@ -4,6 +4,8 @@ import (
 	"archive/zip"
 	"bytes"
 	"errors"
+	"fmt"
+	"io"
 	"strings"
 	"testing"
 
@@ -235,5 +237,74 @@ func TestBadOptions(t *testing.T) {
 		if err := fillErr(t, data, "good.xlsx", o); !errors.Is(err, workbook.ErrBadOption) {
 			t.Errorf("options %+v: %v, want ErrBadOption", o, err)
 		}
+	}
+}
+
+// lyingZip rewrites a package with the entry name declaring what lie
+// does to its header (a size or a checksum), its bytes unchanged.
+func lyingZip(t *testing.T, data []byte, name string, lie func(h *zip.FileHeader)) []byte {
+	t.Helper()
+	zr, err := zip.NewReader(bytes.NewReader(data), int64(len(data)))
+	mustf(t, err, "read the package")
+	var b bytes.Buffer
+	zw := zip.NewWriter(&b)
+	found := false
+	for _, f := range zr.File {
+		h := f.FileHeader
+		if f.Name == name {
+			lie(&h)
+			found = true
+		}
+		r, err := f.OpenRaw()
+		mustf(t, err, "open %s", f.Name)
+		w, err := zw.CreateRaw(&h)
+		mustf(t, err, "create %s", f.Name)
+		_, err = io.Copy(w, r)
+		mustf(t, err, "copy %s", f.Name)
+	}
+	mustf(t, zw.Close(), "close")
+	if !found {
+		t.Fatalf("no part %s", name)
+	}
+	return b.Bytes()
+}
+
+// TestLyingZip: a package whose entries declare sizes or checksums their
+// data do not have is refused as damaged, whether the part is copied,
+// streamed or rewritten, before anything is written (issue 12: 500 from
+// /workbook).
+func TestLyingZip(t *testing.T) {
+	good := goodWorkbook(t)
+	for _, tc := range []struct {
+		part string
+		lie  func(h *zip.FileHeader)
+	}{
+		{"docProps/app.xml", func(h *zip.FileHeader) { h.UncompressedSize64 -= 10 }},  // copied, says smaller
+		{"docProps/app.xml", func(h *zip.FileHeader) { h.UncompressedSize64 += 100 }}, // copied, says larger
+		{"xl/theme/theme1.xml", func(h *zip.FileHeader) { h.CRC32 ^= 1 }},             // copied, wrong checksum
+		{"xl/worksheets/sheet1.xml", func(h *zip.FileHeader) { h.UncompressedSize64 /= 2 }},
+		{"xl/styles.xml", func(h *zip.FileHeader) { h.CRC32 ^= 0xff }},
+		{"xl/sharedStrings.xml", func(h *zip.FileHeader) { h.UncompressedSize64 = 3 }},
+	} {
+		data := lyingZip(t, good, tc.part, tc.lie)
+		err := fillErr(t, data, "lying.xlsx", opts())
+		if !errors.Is(err, workbook.ErrNotWorkbook) || !strings.Contains(err.Error(), "damaged") {
+			t.Errorf("%s lies: error %v, want ErrNotWorkbook saying damaged", tc.part, err)
+		}
+	}
+}
+
+// TestManyParts: a package of more parts than the memory bound holds the
+// directory of is refused before its directory is read.
+func TestManyParts(t *testing.T) {
+	parts := map[string][]byte{"xl/workbook.xml": []byte("<workbook/>")}
+	for i := range 3000 {
+		parts[fmt.Sprintf("customXml/item%d.xml", i)] = []byte("<n/>")
+	}
+	o := opts()
+	o.Memory = 4 << 20 // half of it holds 2048 parts
+	err := fillErr(t, zipOf(t, parts), "parts.xlsx", o)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "3001 parts") {
+		t.Errorf("error %v, want ErrTooLarge counting 3001 parts", err)
 	}
 }

@@ -363,3 +363,19 @@ func labelPairs(pairs []pairSpec) {
 // decoration returns the words of a header besides its quantity and unit:
 // "Drum" for "Drum pressure [barg]", "steam" for "T_steam (C)".
 func decoration(header string) string { return point.HeaderLabel(header) }
+
+// header is what the top of a sheet says: the header row, the row of
+// units under it, and the input pairs with their units.
+type header struct {
+	row     int // 1-based; 0 when there is none (a column map without headers)
+	unitRow int // 1-based; 0 when there is none
+	pairs   []pairSpec
+}
+
+// readHeader interprets the top rows of a sheet (top[i] is row i+1, the
+// cells as text) with the one table reader (point.ReadTable, through
+// findColumns), by opt.Map and opt.HeaderRow where given.
+func readHeader(sheet string, top [][]string, opt Options) (header, error) {
+	row, unitRow, pairs, err := findColumns(sheet, top, opt.Map, opt.HeaderRow, opt.Point.Set)
+	return header{row: row, unitRow: unitRow, pairs: pairs}, err
+}

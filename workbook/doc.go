@@ -43,36 +43,43 @@
 //
 // For each pair the fill writes a status column and the properties of
 // Options.Add (default h, s, v, x, phase) with headers in the same style
-// ("h [kJ/kg]") in the units of Options.Point.Set. A status is "ok", "ok"
-// with a note on formula inputs, "check: …" for a point that was solved
-// but needs a look (within Options.Margin of saturation, where a small
-// error in p or T changes the phase; an engine warning), or the reason the
-// point has no values ("not a number in C17", "out of range: T above
-// 1073.15 K", "two inputs needed, found one: D17 is blank"). Rows whose
-// inputs are all blank are skipped and left blank. Problem cells get a
-// comment (at most MaxComments per sheet; the status column lists all).
+// ("h [kJ/kg]") in the units of Options.Point.Set. The result columns
+// start right of every value, formula and merged range of the sheet and
+// of every hidden or styled column. Each result cell has a style of the
+// fill's own: numbers at full precision with a number format of
+// Options.Digits decimals (defaults per quantity), statuses colour-coded.
+// A status is "ok", "ok" with a note on formula inputs, "check: …" for a
+// point that was solved but needs a look (within Options.Margin of
+// saturation, where a small error in p or T changes the phase; an engine
+// warning), or the reason the point has no values ("not a number in C17",
+// "out of range: T above 1073.15 K", "two inputs needed, found one: D17
+// is blank"). A row whose inputs are all AVERAGE, SUM, MIN or MAX over
+// their own columns is solved, marked as an aggregate row and not counted
+// as a test point. Rows whose inputs are all blank are skipped and left
+// blank. Problem cells get a comment (at most MaxComments per sheet; the
+// status column lists all); the summary sheet lists the flagged and
+// failed points with links (at most MaxListed).
 //
 // Input cells holding formulas are read through their stored results;
 // where a formula has none, excelize calculates it. The status says so.
 //
 // # Keeping the data safe
 //
-// The input is only read. FillFile writes a new file: it refuses an
-// output that is the input or that exists (unless Options.Force), writes to
-// a temporary file in the output folder and renames it into place. The
-// workbook is changed only by adding cells to the right of each filled
-// sheet, comments on problem cells that have none, and the summary sheet;
-// every other sheet, value, formula, style, merged range, comment, defined
-// name and column width is kept.
+// The input is only read. The output is the input's package: every part is
+// copied with its compressed bytes unchanged, except the filled sheets
+// (streamed, cells appended to rows), their rels and notes (extended in
+// place, or new), the styles (formats appended), the workbook part, its
+// rels and the content types (the summary sheet added), and the summary
+// sheet itself. Every copied part is read to its end first, so a package
+// whose entries lie about their sizes is refused as damaged. FillFile
+// writes a new file: it refuses an output that is the input or that exists
+// (unless Options.Force), writes to a temporary file in the output folder,
+// renames it into place, and removes it on any error or cancellation.
 //
 // # Memory
 //
-// excelize holds a sheet in memory while results are written to it. The
-// peak is about CellMemory (870) bytes per cell of the filled sheet, data
-// and results: 1.2 GB for the 100,000-row benchmark sheet of 5 data and 9
-// result columns, against 1.1 GB for plain excelize doing the same reads
-// and writes. A full sheet of 1,048,576 such rows would need about 13 GB.
-// Inputs are streamed and results are solved and written in chunks of
-// 4096 rows, so the fill itself adds about a tenth. Options.MaxCells
-// refuses a sheet before it is loaded.
+// A filled sheet is read twice as a stream (see sheet.go); memory holds a
+// row at a time, the parts loaded whole (the workbook part, the styles,
+// existing notes) and the shared strings, which together must fit half of
+// Options.Memory. A full 1,048,576-row sheet fills in a few tens of MiB.
 package workbook

@@ -1,17 +1,16 @@
 package workbook
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"fmt"
 	"io"
 	"os"
 	"path/filepath"
-	"runtime"
-	"strconv"
 	"strings"
-	"sync"
 	"time"
+	"unicode/utf8"
 
 	"github.com/xuri/excelize/v2"
 
@@ -20,31 +19,52 @@ import (
 )
 
 // Fill reads a workbook from in, fills it as the package doc describes and
-// writes the result to out as .xlsx. name is the file name as the user
-// knows it: a name ending in .csv (or .txt) is read as CSV text, anything
-// else must be an .xlsx workbook; the name is written in the summary.
-// Nothing is written to out when Fill returns an error.
+// writes the result to out. name is the file name as the user knows it: a
+// name ending in .csv (or .txt) is read as CSV text and written as .xlsx;
+// anything else must be an .xlsx or .xlsm package, written as the same
+// package with the results added. The name is written in the summary. in
+// is read in place when it is an io.ReaderAt and an io.Seeker (a file, a
+// bytes.Reader); otherwise it is read into memory first. When Fill returns
+// an error, out may have received part of a package (after an
+// interruption or a failed write only): discard it.
 func Fill(ctx context.Context, in io.Reader, name string, opt Options, out io.Writer) (Summary, error) {
-	data, err := io.ReadAll(in)
+	ra, size, err := readerAt(in)
 	if err != nil {
 		return Summary{}, fmt.Errorf("read %s: %w", filepath.Base(name), err)
 	}
-	f, sum, err := fillData(ctx, data, name, opt, nil)
+	r, err := prepare(ctx, ra, size, name, opt, nil)
 	if err != nil {
-		return sum, err
+		return r.summary(), err
 	}
-	defer f.Close()
-	if err := f.Write(out); err != nil {
-		return sum, fmt.Errorf("write the filled workbook: %w", err)
+	if err := r.write(ctx, out); err != nil {
+		return r.sum, err
 	}
-	return sum, nil
+	return r.sum, nil
+}
+
+// readerAt returns in as an io.ReaderAt and its size.
+func readerAt(in io.Reader) (io.ReaderAt, int64, error) {
+	if ra, ok := in.(io.ReaderAt); ok {
+		if sk, ok := in.(io.Seeker); ok {
+			size, err := sk.Seek(0, io.SeekEnd)
+			if err == nil {
+				return ra, size, nil
+			}
+		}
+	}
+	data, err := io.ReadAll(in)
+	if err != nil {
+		return nil, 0, err
+	}
+	return bytes.NewReader(data), int64(len(data)), nil
 }
 
 // FillFile fills the workbook at inPath and writes it to outPath ("" means
 // DefaultOutput(inPath)). It never writes to inPath: it refuses an
 // outPath that is the input, or that exists unless opt.Force, and it
-// writes a temporary file in the output folder that it renames into place.
-// progress, when not nil, is told what is being done (see Progress).
+// writes a temporary file in the output folder that it renames into place
+// and removes on any error or cancellation. progress, when not nil, is
+// told what is being done (see Progress).
 func FillFile(ctx context.Context, inPath, outPath string, opt Options, progress Progress) (Summary, error) {
 	if outPath == "" {
 		outPath = DefaultOutput(inPath)
@@ -52,22 +72,23 @@ func FillFile(ctx context.Context, inPath, outPath string, opt Options, progress
 	if err := checkPaths(inPath, outPath, opt.Force); err != nil {
 		return Summary{}, err
 	}
-	data, err := os.ReadFile(inPath)
+	f, err := os.Open(inPath)
 	if err != nil {
 		return Summary{}, fmt.Errorf("read the input: %w", err)
 	}
-	f, sum, err := fillData(ctx, data, inPath, opt, progress)
-	if err != nil {
-		return sum, err
-	}
 	defer f.Close()
-	if progress != nil {
-		progress("saving "+filepath.Base(outPath), 0, -1)
+	info, err := f.Stat()
+	if err != nil {
+		return Summary{}, fmt.Errorf("read the input: %w", err)
 	}
-	if err := writeFile(f, outPath, opt.Force); err != nil {
-		return sum, err
+	r, err := prepare(ctx, f, info.Size(), inPath, opt, progress)
+	if err != nil {
+		return r.summary(), err
 	}
-	return sum, nil
+	if err := writeFile(ctx, r, outPath, opt.Force); err != nil {
+		return r.sum, err
+	}
+	return r.sum, nil
 }
 
 // Progress is told the stage of a fill ("reading Boiler 2", "filling
@@ -123,10 +144,12 @@ func checkPaths(inPath, outPath string, force bool) error {
 	return nil
 }
 
-// writeFile writes f to a temporary file beside path and moves it into
-// place: by a hard link when it must not replace an existing file (so that
-// a file appearing meanwhile is not lost), by a rename otherwise.
-func writeFile(f *excelize.File, path string, force bool) error {
+// writeFile writes the filled package to a temporary file beside path
+// and moves it into place: by a hard link when it must not replace an
+// existing file (so that a file appearing meanwhile is not lost), by a
+// rename otherwise. The temporary file is removed whatever happens,
+// cancellation included.
+func writeFile(ctx context.Context, r *run, path string, force bool) error {
 	dir := filepath.Dir(path)
 	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".*.tmp")
 	if err != nil {
@@ -134,9 +157,9 @@ func writeFile(f *excelize.File, path string, force bool) error {
 	}
 	tmpName := tmp.Name()
 	defer os.Remove(tmpName) // after a rename, there is nothing left to remove
-	if err := f.Write(tmp); err != nil {
+	if err := r.write(ctx, tmp); err != nil {
 		tmp.Close()
-		return fmt.Errorf("write %s: %w", tmpName, err)
+		return err
 	}
 	if err := tmp.Sync(); err != nil {
 		tmp.Close()
@@ -144,6 +167,12 @@ func writeFile(f *excelize.File, path string, force bool) error {
 	}
 	if err := tmp.Close(); err != nil {
 		return fmt.Errorf("write %s: %w", tmpName, err)
+	}
+	if r.progress != nil {
+		r.progress("saving "+filepath.Base(path), 0, -1)
+	}
+	if err := ctx.Err(); err != nil {
+		return err
 	}
 	if err := os.Chmod(tmpName, 0o644); err != nil {
 		return fmt.Errorf("set the mode of %s: %w", tmpName, err)
@@ -167,29 +196,40 @@ func writeFile(f *excelize.File, path string, force bool) error {
 	return nil
 }
 
-// fillData opens data and fills it. On success the caller closes f.
-func fillData(ctx context.Context, data []byte, name string, opt Options, progress Progress) (*excelize.File, Summary, error) {
-	limit := opt.UnzipSizeLimit
-	if limit <= 0 {
-		limit = DefaultUnzipSizeLimit
-	}
-	f, note, err := open(data, name, limit)
+// prepare opens the input and runs the first pass over every sheet to
+// fill: after it, every part to write is planned and every part to copy
+// has been read once to its end. A run is returned with the error, for
+// the summary of what was done.
+func prepare(ctx context.Context, ra io.ReaderAt, size int64, name string, opt Options, progress Progress) (*run, error) {
+	r, err := newRun(filepath.Base(name), opt, progress)
 	if err != nil {
-		return nil, Summary{}, err
+		return nil, err
 	}
-	run, err := newRun(f, filepath.Base(name), opt, progress)
+	ra, size, note, err := openInput(ra, size, name, r.unzipLimit, r.memory)
 	if err != nil {
-		f.Close()
-		return nil, Summary{}, err
+		return r, err
 	}
 	if note != "" {
-		run.sum.Notes = append(run.sum.Notes, note)
+		r.sum.Notes = append(r.sum.Notes, note)
 	}
-	if err := run.fill(ctx); err != nil {
-		f.Close()
-		return nil, run.sum, err
+	r.input, r.inputSize = ra, size
+	if r.pkg, err = openPkg(ra, size, r.fileName, r.unzipLimit, r.memory/2); err != nil {
+		return r, err
 	}
-	return f, run.sum, nil
+	if r.sst, err = r.pkg.loadSharedStrings(); err != nil {
+		return r, err
+	}
+	if err := r.fill(ctx); err != nil {
+		return r, err
+	}
+	return r, r.plan(ctx)
+}
+
+func (r *run) summary() Summary {
+	if r == nil {
+		return Summary{}
+	}
+	return r.sum
 }
 
 // output is a result column written for each pair.
@@ -197,23 +237,49 @@ type output struct {
 	sym    string // property symbol, or "phase" or "region"
 	header string // "h [kJ/kg]"
 	unit   string
-	width  float64
+	sci    bool   // shown in scientific notation
+	code   string // number format; "" for text
 }
 
 // run is one fill of one workbook.
 type run struct {
-	f        *excelize.File
-	fileName string
-	opt      Options
-	margin   float64 // K; 0 is off
-	syms     []string
-	outs     []output
-	progress Progress
-	sum      Summary
+	fileName   string
+	opt        Options
+	margin     float64 // K; 0 is off
+	syms       []string
+	outs       []output
+	rowPlan    *point.Plan  // how a row's answer is written (made once)
+	ans        point.Answer // the answer of the row being solved, reused
+	progress   Progress
+	sum        Summary
+	unzipLimit int64
+	memory     int64
+
+	input     io.ReaderAt
+	inputSize int64
+	pkg       *pkg
+	sst       *sharedStrings
+	styles    *styleTable
+	sheets    []*sheetRun // the sheets filled
+	newParts  []newPart
+	calcFile  *excelize.File
+	calcTried bool
+
+	// planned parts
+	rewritten   map[string][]byte // by lower-case part name
+	streamed    map[string]*sheetRun
+	summaryPart string
 }
 
-func newRun(f *excelize.File, fileName string, opt Options, progress Progress) (*run, error) {
-	r := &run{f: f, fileName: fileName, opt: opt, progress: progress}
+// newPart is a part the fill adds.
+type newPart struct {
+	name  string
+	ctype string // "" for a relationships part
+	data  []byte
+}
+
+func newRun(fileName string, opt Options, progress Progress) (*run, error) {
+	r := &run{fileName: fileName, opt: opt, progress: progress}
 	switch {
 	case opt.Margin == 0:
 		r.margin = DefaultMargin
@@ -223,22 +289,70 @@ func newRun(f *excelize.File, fileName string, opt Options, progress Progress) (
 	if r.opt.Date.IsZero() {
 		r.opt.Date = time.Now()
 	}
+	r.unzipLimit = opt.UnzipSizeLimit
+	if r.unzipLimit <= 0 {
+		r.unzipLimit = DefaultUnzipSizeLimit
+	}
+	r.memory = opt.Memory
+	if r.memory <= 0 {
+		r.memory = DefaultMemory
+	}
 	if p := opt.Point.Patm; p != 0 && (p < units.MinPatm || p > units.MaxPatm) {
 		return nil, &Error{Kind: ErrBadOption, Msg: fmt.Sprintf("atmospheric pressure %g MPa is outside %g…%g MPa, the range of sites on Earth", p, units.MinPatm, units.MaxPatm)}
 	}
-	if opt.HeaderRow < 0 || opt.HeaderRow > excelize.TotalRows {
+	if opt.HeaderRow < 0 || opt.HeaderRow > maxRows {
 		return nil, &Error{Kind: ErrBadOption, Msg: fmt.Sprintf("header row %d is not a row of a sheet", opt.HeaderRow)}
 	}
+	for sym, d := range opt.Digits {
+		if d < 0 || d > 15 {
+			return nil, &Error{Kind: ErrBadOption, Msg: fmt.Sprintf("digits %d for %q: give 0 to 15 decimals", d, sym)}
+		}
+	}
 	var err error
-	r.outs, r.syms, err = outputs(opt.Add, opt.Point)
+	r.outs, r.syms, err = outputs(opt.Add, opt.Point, r.digitsOf)
 	if err != nil {
 		return nil, err
 	}
+	r.rowPlan = point.NewPlan(r.syms, opt.Point)
 	return r, nil
 }
 
+// Default decimals of results by quantity, chosen for plant readings in
+// the si set: enough to show the change a test resolves, no more (common
+// practice, no source). Quantities not listed are shown in scientific
+// notation with sciDigits decimals.
+var defaultDigits = map[units.Dim]int{
+	units.Pressure:        4,
+	units.Temperature:     2,
+	units.SpecificEnergy:  2,
+	units.SpecificEntropy: 4,
+	units.SpecificVolume:  6,
+	units.Density:         3,
+	units.Speed:           1,
+	units.Quality:         4,
+	units.Dimensionless:   4,
+}
+
+const sciDigits = 4
+
+// digitsOf returns the decimals shown for a property: Options.Digits for
+// it, or for every property (key ""), or the default of its quantity.
+func (r *run) digitsOf(sym string) int {
+	if d, ok := r.opt.Digits[sym]; ok {
+		return d
+	}
+	if d, ok := r.opt.Digits[""]; ok {
+		return d
+	}
+	p, _ := point.Lookup(sym)
+	if d, ok := defaultDigits[p.Dim]; ok {
+		return d
+	}
+	return sciDigits
+}
+
 // outputs reads the list of properties to write.
-func outputs(add []string, po point.Options) ([]output, []string, error) {
+func outputs(add []string, po point.Options, digits func(string) int) ([]output, []string, error) {
 	if len(add) == 0 {
 		add = DefaultAdd
 	}
@@ -267,17 +381,27 @@ func outputs(add []string, po point.Options) ([]output, []string, error) {
 			seen[sym] = true
 			switch sym {
 			case "phase":
-				outs = append(outs, output{sym: sym, header: "Phase", width: 20})
+				outs = append(outs, output{sym: sym, header: "Phase"})
 			case "region":
-				outs = append(outs, output{sym: sym, header: "IF97 region", width: 12})
+				outs = append(outs, output{sym: sym, header: "IF97 region"})
 			default:
 				p, _ := point.Lookup(sym)
-				u := p.Unit(po.Set)
+				u := p.Unit(po.Set) // K of difference for superheat in a °C set
 				label := u
 				if label == "" {
 					label = "-"
 				}
-				outs = append(outs, output{sym: sym, header: displaySymbol(sym) + " [" + label + "]", unit: u, width: 13})
+				_, fixed := defaultDigits[p.Dim]
+				o := output{sym: sym, header: displaySymbol(sym) + " [" + label + "]", unit: u, sci: !fixed}
+				d := digits(sym)
+				o.code = "0"
+				if d > 0 {
+					o.code += "." + strings.Repeat("0", d)
+				}
+				if o.sci {
+					o.code += "E+00"
+				}
+				outs = append(outs, o)
 				syms = append(syms, sym)
 			}
 		}
@@ -300,51 +424,58 @@ func displaySymbol(sym string) string {
 	return sym
 }
 
-// fill fills the sheets and adds the summary sheet.
+// fill runs the first pass over the sheets to fill.
 func (r *run) fill(ctx context.Context) error {
-	list := r.f.GetSheetList()
-	var targets []string
+	var list []string
+	for _, e := range r.pkg.sheets {
+		list = append(list, e.Name)
+	}
+	var targets []sheetEntry
 	if r.opt.Sheet != "" {
-		name := ""
-		for _, s := range list {
-			if s == r.opt.Sheet {
-				name = s
+		found := -1
+		for i, e := range r.pkg.sheets {
+			if e.Name == r.opt.Sheet {
+				found = i
 			}
 		}
-		if name == "" {
-			for _, s := range list {
-				if strings.EqualFold(s, r.opt.Sheet) {
-					name = s
+		if found < 0 {
+			for i, e := range r.pkg.sheets {
+				if strings.EqualFold(e.Name, r.opt.Sheet) {
+					found = i
 				}
 			}
 		}
-		if name == "" {
+		if found < 0 {
 			return &Error{Kind: ErrNoSheet, Msg: fmt.Sprintf("%s has no sheet %q; its sheets are %s", r.fileName, r.opt.Sheet, quoteList(list))}
 		}
-		targets = []string{name}
+		if r.pkg.sheets[found].part == "" {
+			return &Error{Kind: ErrNoSheet, Msg: fmt.Sprintf("%s: %q is not a sheet of cells (a chart sheet?); its sheets are %s", r.fileName, r.opt.Sheet, quoteList(list))}
+		}
+		targets = []sheetEntry{r.pkg.sheets[found]}
 	} else {
 		if r.opt.Map != "" && len(list) > 1 {
 			return &Error{Kind: ErrBadOption, Msg: fmt.Sprintf("a column map applies to one sheet; name it with --sheet (sheets: %s)", quoteList(list))}
 		}
-		targets = list
+		targets = r.pkg.sheets
 	}
 	var skipped []string
-	for _, name := range targets {
+	for _, e := range targets {
 		if err := ctx.Err(); err != nil {
 			return err
 		}
-		ss := SheetSummary{Name: name}
+		ss := SheetSummary{Name: e.Name}
 		if r.opt.Sheet == "" {
-			if isSummarySheet(name) {
+			if isSummarySheet(e.Name) || e.part == "" {
 				continue
 			}
-			if visible, err := r.f.GetSheetVisible(name); err == nil && !visible {
+			if e.State == "hidden" || e.State == "veryHidden" {
 				ss.Note = "hidden sheet, not filled; name it with --sheet to fill it"
 				r.sum.Sheets = append(r.sum.Sheets, ss)
 				continue
 			}
 		}
-		err := r.fillSheet(ctx, &ss)
+		s := &sheetRun{run: r, entry: e, name: e.Name, part: e.part, ss: &ss}
+		err := s.first(ctx)
 		var we *Error
 		if err != nil && r.opt.Sheet == "" && errors.As(err, &we) && errors.Is(err, ErrNoInputs) {
 			ss.Note = "not filled: " + we.Msg
@@ -356,19 +487,19 @@ func (r *run) fill(ctx context.Context) error {
 			return err
 		}
 		r.sum.Sheets = append(r.sum.Sheets, ss)
+		r.sheets = append(r.sheets, s)
 	}
-	filled := 0
 	for _, s := range r.sum.Sheets {
 		if s.Filled {
-			filled++
 			r.sum.Rows += s.Rows
 			r.sum.OK += s.OK
 			r.sum.Flagged += s.Flagged
 			r.sum.Failed += s.Failed
 			r.sum.Blank += s.Blank
+			r.sum.Aggregate += s.Aggregate
 		}
 	}
-	if filled == 0 {
+	if len(r.sheets) == 0 {
 		msg := fmt.Sprintf("%s: no sheet has two input columns.", r.fileName)
 		if len(skipped) > 0 {
 			msg += " " + strings.Join(skipped, " ")
@@ -377,7 +508,7 @@ func (r *run) fill(ctx context.Context) error {
 		}
 		return &Error{Kind: ErrNoInputs, Msg: msg}
 	}
-	return r.writeSummary()
+	return nil
 }
 
 func quoteList(list []string) string {
@@ -390,9 +521,11 @@ func quoteList(list []string) string {
 
 // dataRow is a row below the header with at least one input.
 type dataRow struct {
-	row  int
-	vals []string // the inputs, two per pair, trimmed
-	note []byte   // per input: 0, formulaStored or formulaCalculated; nil when none
+	row       int
+	vals      []string // the inputs, two per pair, trimmed
+	note      []byte   // per input: 0, formulaStored or formulaCalculated; nil when none
+	aggregate string   // "AVERAGE of C3:C20" when the inputs aggregate their columns
+	needsCalc bool     // a formula input has no stored result
 }
 
 const (
@@ -401,146 +534,75 @@ const (
 	formulaFailed                // a formula without a stored result that could not be calculated
 )
 
-// sheetRun is the fill of one sheet.
-type sheetRun struct {
-	*run
-	name      string
-	headerRow int
-	unitRow   int // the row of units under the header, or 0
-	pairs     []pairSpec
-	rows      []dataRow
-	maxCol    int // columns used by the data: results start at this index
-	lastRow   int // last row with an input
-	nRows     int // rows of the sheet, as streamed
-	done      int // rows filled
-	total     int // rows to fill
-}
-
-// fillSheet reads the inputs of one sheet, solves them and writes the
-// results.
-func (r *run) fillSheet(ctx context.Context, ss *SheetSummary) error {
-	s := &sheetRun{run: r, name: ss.Name}
-	if err := s.read(); err != nil {
+// first runs the first pass over one sheet and places its results.
+func (s *sheetRun) first(ctx context.Context) error {
+	var err error
+	if s.rels, err = s.pkg.rels(s.part); err != nil {
+		return damaged(s.pkg.base, fmt.Errorf("%s: %w", relsPath(s.part), err))
+	}
+	if s.relsXML, err = s.pkg.readIfThere(relsPath(s.part)); err != nil {
 		return err
 	}
-	if s.opt.MaxCells > 0 {
-		cells := int64(s.nRows) * int64(s.maxCol+len(s.pairs)*(1+len(s.outs)))
-		if cells > s.opt.MaxCells {
-			return &Error{Kind: ErrTooLarge, Sheet: s.name, Msg: fmt.Sprintf(
-				"sheet %q has %d rows and would have %d columns: %d cells, more than the limit of %d (about %s of memory); split the sheet",
-				s.name, s.nRows, s.maxCol+len(s.pairs)*(1+len(s.outs)), cells, s.opt.MaxCells, byteSize(uint64(s.opt.MaxCells)*CellMemory))}
-		}
-	}
+	s.styles = s.run.styleTable()
+	s.calc = map[[2]int]string{}
 	if s.progress != nil {
-		s.progress("loading "+s.name, 0, -1)
+		s.progress("reading "+s.name, 0, -1)
 	}
-	if err := s.resolveFormulas(); err != nil {
+	if err := s.pass1(ctx); err != nil {
 		return err
 	}
 	if err := s.placeOutputs(); err != nil {
 		return err
 	}
-	return s.solveAndWrite(ctx, ss)
-}
-
-// read streams the rows of the sheet: the top rows whole, to find the
-// header; below it only the input cells.
-func (s *sheetRun) read() error {
-	rows, err := s.f.Rows(s.name)
-	if err != nil {
-		return fmt.Errorf("read sheet %q: %w", s.name, err)
+	if err := s.calculate(); err != nil {
+		return err
 	}
-	defer rows.Close()
-	var top [][]string
-	decided := false
-	n := 0
-	for rows.Next() {
-		n++
-		if n%chunkRows == 0 && s.progress != nil {
-			s.progress("reading "+s.name, n, -1)
-		}
-		cols, err := rows.Columns(excelize.Options{RawCellValue: true})
-		if err != nil {
-			return fmt.Errorf("read row %d of sheet %q: %w", n, s.name, err)
-		}
-		if len(cols) > s.maxCol {
-			s.maxCol = len(cols)
-		}
-		if !decided {
-			top = append(top, cols)
-			if n < max(headerScanRows, s.opt.HeaderRow+1) { // a row of units may follow the header
-				continue
+	if err := s.readNotes(); err != nil {
+		return err
+	}
+	s.pickComments()
+	ss := s.ss
+	ss.HeaderRow, ss.UnitRow = s.headerRow, s.unitRow
+	if s.unitRow > 0 {
+		ss.Note = joinNote(ss.Note, fmt.Sprintf("units read from row %d, under the header", s.unitRow))
+	}
+	for _, pr := range s.pairs { // headers without a unit: say which unit was used
+		for _, c := range pr.in {
+			if c.setNote != "" {
+				ss.Note = joinNote(ss.Note, c.setNote)
 			}
-			if err := s.decide(top); err != nil {
-				return err
-			}
-			decided = true
-			for i, c := range top {
-				s.take(i+1, c)
-			}
-			top = nil
-			continue
-		}
-		s.take(n, cols)
-	}
-	s.nRows = n
-	if err := rows.Error(); err != nil {
-		if errors.Is(err, excelize.ErrMaxRows) {
-			return &Error{Kind: ErrTooLarge, Sheet: s.name, Msg: fmt.Sprintf("sheet %q has a row beyond %d, the last row a sheet may have", s.name, excelize.TotalRows)}
-		}
-		return fmt.Errorf("read sheet %q: %w", s.name, err)
-	}
-	if !decided {
-		if n == 0 {
-			return &Error{Kind: ErrNoInputs, Sheet: s.name, Msg: fmt.Sprintf("sheet %q is empty.", s.name)}
-		}
-		if err := s.decide(top); err != nil {
-			return err
-		}
-		for i, c := range top {
-			s.take(i+1, c)
 		}
 	}
+	ss.Comments = len(s.comments)
+	if s.omitted > 0 {
+		ss.Note = joinNote(ss.Note, fmt.Sprintf("comments on the first %d problems only (%d more); the status column lists every problem", MaxComments, s.omitted))
+	}
+	ss.Blank = s.lastRow - s.lastHeaderRow() - ss.Rows - ss.Aggregate
+	if ss.Rows+ss.Aggregate == 0 {
+		ss.Blank = 0
+		ss.Note = joinNote(ss.Note, "no data rows below the header")
+	}
+	ss.Filled = true
 	return nil
 }
 
-// decide finds the header row and the input pairs from the top rows.
-func (s *sheetRun) decide(top [][]string) error {
-	var err error
-	s.headerRow, s.unitRow, s.pairs, err = findColumns(s.name, top, s.opt.Map, s.opt.HeaderRow, s.opt.Point.Set)
-	return err
+// styleTable returns the run's table of styles, made once.
+func (r *run) styleTable() *styleTable {
+	if r.styles == nil {
+		var codes []string
+		for _, o := range r.outs {
+			if o.code != "" {
+				codes = append(codes, o.code)
+			}
+		}
+		r.styles = newStyleTable(codes)
+	}
+	return r.styles
 }
 
 // lastHeaderRow is the last row of the header: the row of units under it
 // where there is one.
 func (s *sheetRun) lastHeaderRow() int { return max(s.headerRow, s.unitRow) }
-
-// take keeps row n when it lies below the header and has a cell in an
-// input column: a value, or a formula whose result is not stored (the
-// stream shows it as ""). Rows without inputs are dropped by
-// resolveFormulas.
-func (s *sheetRun) take(n int, cols []string) {
-	if n <= s.lastHeaderRow() {
-		return
-	}
-	var vals []string
-	idx := 0
-	for _, p := range s.pairs {
-		for _, c := range p.in {
-			if c.idx < len(cols) {
-				if vals == nil {
-					vals = make([]string, 2*len(s.pairs))
-				}
-				vals[idx] = strings.TrimSpace(cols[c.idx])
-			}
-			idx++
-		}
-	}
-	if vals == nil || s.repeatsHeader(vals) {
-		return
-	}
-	s.rows = append(s.rows, dataRow{row: n, vals: vals})
-}
 
 // repeatsHeader reports whether the inputs of a row are the input headers
 // again, as sheets laid out for printing repeat them; such a row is no
@@ -558,234 +620,158 @@ func (s *sheetRun) repeatsHeader(vals []string) bool {
 	return true
 }
 
-// resolveFormulas finds the input cells that hold formulas: their stored
-// results are used; where a formula has none, excelize calculates it.
-func (s *sheetRun) resolveFormulas() error {
-	for i := range s.rows {
-		dr := &s.rows[i]
-		for j, p := range s.pairs {
-			for k, c := range p.in {
-				cell := cellName(c.idx, dr.row)
-				fx, err := s.f.GetCellFormula(s.name, cell)
-				if err != nil {
-					return fmt.Errorf("read the formula of %s on sheet %q: %w", cell, s.name, err)
-				}
-				if fx == "" {
-					continue
-				}
-				if dr.note == nil {
-					dr.note = make([]byte, len(dr.vals))
-				}
-				idx := 2*j + k
-				dr.note[idx] = formulaStored
-				if dr.vals[idx] == "" {
-					v, err := s.f.CalcCellValue(s.name, cell, excelize.Options{RawCellValue: true})
-					dr.vals[idx] = strings.TrimSpace(v)
-					dr.note[idx] = formulaCalculated
-					if err != nil || dr.vals[idx] == "" {
-						// Kept as a row, reported as a formula without a value.
-						dr.vals[idx] = " "
-						dr.note[idx] = formulaFailed
-					}
-				}
-			}
-		}
-	}
-	kept := s.rows[:0]
-	for _, dr := range s.rows {
-		for _, v := range dr.vals {
-			if v != "" {
-				kept = append(kept, dr)
-				s.lastRow = dr.row
-				break
-			}
-		}
-	}
-	s.rows = kept
-	return nil
-}
-
 // placeOutputs puts the result columns right of everything the sheet
-// holds: values, formulas and merged ranges.
+// holds (values, formulas, merged ranges) and of every hidden or styled
+// column, and names them.
 func (s *sheetRun) placeOutputs() error {
-	merged, err := s.f.GetMergeCells(s.name, true)
-	if err != nil {
-		return fmt.Errorf("read the merged cells of sheet %q: %w", s.name, err)
-	}
-	for _, m := range merged {
-		col, _, err := excelize.CellNameToCoordinates(m.GetEndAxis())
-		if err == nil && col > s.maxCol {
-			s.maxCol = col
-		}
-	}
+	s.firstOut = max(s.usedCol, s.colsMax, s.mergedMax)
 	for _, p := range s.pairs {
 		for _, c := range p.in {
-			if c.idx+1 > s.maxCol {
-				s.maxCol = c.idx + 1
-			}
+			s.firstOut = max(s.firstOut, c.idx+1)
 		}
 	}
-	need := len(s.pairs) * (1 + len(s.outs))
-	if s.maxCol+need > excelize.MaxColumns {
+	if s.firstOut+s.nOut > maxColumns {
 		return &Error{Kind: ErrNoRoom, Sheet: s.name, Msg: fmt.Sprintf(
-			"sheet %q uses columns up to %s; the %d result columns do not fit before the last column, %s. Move or delete the columns at the far right",
-			s.name, colLetter(s.maxCol-1), need, colLetter(excelize.MaxColumns-1))}
+			"sheet %q uses columns up to %s (values, merged cells, hidden or formatted columns); the %d result columns do not fit before the last column, %s. Move or delete the columns at the far right",
+			s.name, colLetter(s.firstOut-1), s.nOut, colLetter(maxColumns-1))}
 	}
-	return nil
-}
-
-// chunkRows is how many rows are solved before they are written.
-const chunkRows = 4096
-
-// solveAndWrite solves the rows in chunks, in parallel, and writes each
-// chunk in row order.
-func (s *sheetRun) solveAndWrite(ctx context.Context, ss *SheetSummary) error {
-	width := 1 + len(s.outs)
-	nOut := len(s.pairs) * width
-	ss.HeaderRow = s.headerRow
-	ss.UnitRow = s.unitRow
-	if s.unitRow > 0 {
-		ss.Note = joinNote(ss.Note, fmt.Sprintf("units read from row %d, under the header", s.unitRow))
-	}
-	for _, p := range s.pairs {
-		for _, c := range p.in {
-			if c.setNote != "" {
-				ss.Note = joinNote(ss.Note, c.setNote)
-			}
-		}
-	}
+	ss := s.ss
 	ss.Pairs = make([]Pair, len(s.pairs))
+	width := 1 + len(s.outs)
 	for i, p := range s.pairs {
 		pr := &ss.Pairs[i]
 		pr.Label = p.label
 		for j, c := range p.in {
 			pr.Inputs[j] = Column{Letter: c.letter(), Header: c.header, Symbol: c.sym, Unit: c.unit, Mapped: c.mapped}
 		}
-		base := s.maxCol + i*width
+		base := s.firstOut + i*width
 		pr.Outputs = append(pr.Outputs, Column{Letter: colLetter(base), Header: s.statusHeader(p), Symbol: "status"})
 		for k, o := range s.outs {
 			pr.Outputs = append(pr.Outputs, Column{Letter: colLetter(base + 1 + k), Header: s.outHeader(p, o), Symbol: o.sym, Unit: o.unit})
 		}
+		pr.OK, pr.Flagged, pr.Failed = s.pairCounts[i][0], s.pairCounts[i][1], s.pairCounts[i][2]
 	}
-	if err := s.writeHeaders(ss); err != nil {
-		return err
+	for i := range s.outs2 {
+		s.outs2[i].letter = colLetter(s.firstOut + i)
+		h := s.outHeaderAt(i)
+		// A header wraps at its spaces; its longest word must fit.
+		longest := 0
+		for _, w := range strings.Fields(h) {
+			longest = max(longest, utf8.RuneCountInString(w))
+		}
+		s.widths[i] = max(s.widths[i], float64(min(utf8.RuneCountInString(h), max(longest, 14)))+2)
 	}
-	existing, err := s.f.GetComments(s.name)
-	if err != nil {
-		return fmt.Errorf("read the comments of sheet %q: %w", s.name, err)
-	}
-	hasComment := make(map[string]bool, len(existing))
-	for _, c := range existing {
-		hasComment[c.Cell] = true
-	}
-	s.total = len(s.rows)
-	s.report()
+	return nil
+}
 
-	letters := make([]string, nOut)
-	for i := range letters {
-		letters[i] = colLetter(s.maxCol + i)
+// maxColumns is the number of columns of a sheet.
+const maxColumns = 16384
+
+// setPairs fixes the pairs of a sheet and the result columns they get.
+func (s *sheetRun) setPairs() {
+	width := 1 + len(s.outs)
+	s.nOut = len(s.pairs) * width
+	s.outs2 = make([]outCell, s.nOut)
+	s.widths = make([]float64, s.nOut)
+	s.pairCounts = make([][3]int, len(s.pairs))
+	for i := range s.pairs {
+		for k := range s.outs {
+			o := &s.outs[k]
+			c := &s.outs2[i*width+1+k]
+			c.out = o
+		}
 	}
-	workers := runtime.GOMAXPROCS(0)
-	vals := make([]any, chunkRows*nOut)
-	results := make([]rowResult, chunkRows)
-	var comments []pendingComment
-	omitted := 0
-	for start := 0; start < len(s.rows); start += chunkRows {
-		if err := ctx.Err(); err != nil {
-			return err
-		}
-		end := min(start+chunkRows, len(s.rows))
-		n := end - start
-		clear(vals[:n*nOut])
-		var wg sync.WaitGroup
-		per := (n + workers - 1) / workers
-		for w := 0; w < n; w += per {
-			wg.Add(1)
-			go func(lo, hi int) {
-				defer wg.Done()
-				for i := lo; i < hi; i++ {
-					results[i] = s.solveRow(&s.rows[start+i], vals[i*nOut:(i+1)*nOut])
-				}
-			}(w, min(w+per, n))
-		}
-		wg.Wait()
-		for i := 0; i < n; i++ {
-			dr := &s.rows[start+i]
-			if err := s.writeRow(dr.row, letters, vals[i*nOut:(i+1)*nOut]); err != nil {
-				return fmt.Errorf("write row %d of sheet %q: %w", dr.row, s.name, err)
-			}
-			res := &results[i]
-			s.count(ss, res)
-			for _, c := range res.comments {
-				if hasComment[c.cell] {
-					c.cell = c.fallback
-					if hasComment[c.cell] {
-						continue
-					}
-				}
-				if len(comments) >= MaxComments {
-					omitted++
+}
+
+// calculate finds the values of input formulas without a stored result
+// with excelize's calculation engine, then solves their rows. It loads
+// the workbook into excelize's model, which takes several times the size
+// of the XML, so only a workbook that unpacks to a 32nd of the memory
+// budget is calculated; in a larger one such rows say that the formula
+// has no stored result.
+func (s *sheetRun) calculate() error {
+	if len(s.pending) == 0 {
+		return nil
+	}
+	f := s.run.calculator()
+	for i := range s.pending {
+		dr := &s.pending[i]
+		for j, p := range s.pairs {
+			for k, c := range p.in {
+				idx := 2*j + k
+				if dr.note == nil || dr.note[idx] != formulaStored || dr.vals[idx] != " " {
 					continue
 				}
-				hasComment[c.cell] = true
-				comments = append(comments, c)
+				v := ""
+				if f != nil {
+					cv, err := f.CalcCellValue(s.name, cellName(c.idx, dr.row), excelize.Options{RawCellValue: true})
+					if err == nil {
+						v = strings.TrimSpace(cv)
+					}
+				}
+				s.calc[[2]int{dr.row, c.idx}] = v
+				if v == "" {
+					dr.note[idx] = formulaFailed
+				} else {
+					dr.vals[idx], dr.note[idx] = v, formulaCalculated
+				}
 			}
 		}
-		s.done += n
-		s.report()
+		dr.needsCalc = false
+		s.analyse(dr)
 	}
-	for _, c := range comments {
-		if err := s.f.AddComment(s.name, excelize.Comment{Author: "steamcell", Cell: c.cell, Text: c.text, Width: 320, Height: 110}); err != nil {
-			return fmt.Errorf("add a comment to %s on sheet %q: %w", c.cell, s.name, err)
-		}
-	}
-	ss.Comments = len(comments)
-	if omitted > 0 {
-		ss.Note = fmt.Sprintf("comments on the first %d problems only (%d more); the status column lists every problem", MaxComments, omitted)
-	}
-	ss.Blank = s.lastRow - s.lastHeaderRow() - len(s.rows)
-	if len(s.rows) == 0 {
-		ss.Blank = 0
-		ss.Note = joinNote(ss.Note, "no data rows below the header")
-	}
-	ss.Filled = true
+	s.pending = nil
 	return nil
 }
 
-// writeRow writes the results of one row; blank results write no cell.
-// Numbers are written in full: excelize's automatic precision would cut
-// them to 15 significant digits.
-func (s *sheetRun) writeRow(row int, letters []string, vals []any) error {
-	r := strconv.Itoa(row)
-	for i, v := range vals {
-		var err error
-		switch v := v.(type) {
-		case nil:
+// calculator opens the input with excelize for formula calculation, once;
+// nil when it is too large or cannot be opened.
+func (r *run) calculator() *excelize.File {
+	if r.calcTried {
+		return r.calcFile
+	}
+	r.calcTried = true
+	var total uint64
+	for _, f := range r.pkg.zr.File {
+		total += f.UncompressedSize64
+	}
+	if total > uint64(r.memory/32) {
+		return nil
+	}
+	// Every part is kept in memory (no temporary files), within the
+	// limit checked above.
+	f, err := excelize.OpenReader(io.NewSectionReader(r.input, 0, r.inputSize),
+		excelize.Options{UnzipSizeLimit: int64(total) + 1, UnzipXMLSizeLimit: int64(total) + 1})
+	if err != nil {
+		return nil
+	}
+	r.calcFile = f
+	return f
+}
+
+// pickComments places the comments found in the first pass: on their
+// cell, or on the status cell when the cell has a comment already.
+func (s *sheetRun) pickComments() {
+	width := 1 + len(s.outs)
+	var kept []pendingComment
+	for _, c := range s.candidates {
+		cell := c.cell
+		if cell == "" || s.hasComment[cell] {
+			cell = cellName(s.firstOut+c.pair*width, c.row)
+			if s.hasComment[cell] {
+				continue
+			}
+		}
+		if len(kept) >= MaxComments {
+			s.omitted++
 			continue
-		case float64:
-			err = s.f.SetCellFloat(s.name, letters[i]+r, v, decimals(v), 64)
-		case string:
-			err = s.f.SetCellStr(s.name, letters[i]+r, v)
-		case int:
-			err = s.f.SetCellInt(s.name, letters[i]+r, int64(v))
-		default:
-			err = s.f.SetCellValue(s.name, letters[i]+r, v)
 		}
-		if err != nil {
-			return err
-		}
+		s.hasComment[cell] = true
+		c.cell = cell
+		kept = append(kept, c)
 	}
-	return nil
-}
-
-// decimals returns the number of decimals of the shortest decimal form of
-// v that reads back as v.
-func decimals(v float64) int {
-	str := strconv.FormatFloat(v, 'f', -1, 64)
-	if i := strings.IndexByte(str, '.'); i >= 0 {
-		return len(str) - i - 1
-	}
-	return 0
+	s.comments = kept
+	s.candidates = nil
 }
 
 func joinNote(a, b string) string {
@@ -795,10 +781,16 @@ func joinNote(a, b string) string {
 	return a + "; " + b
 }
 
-func (s *sheetRun) report() {
-	if s.progress != nil {
-		s.progress("filling "+s.name, s.done, s.total)
+// report tells the progress of a pass.
+func (s *sheetRun) report(writing bool, rows int) {
+	if s.progress == nil {
+		return
 	}
+	if writing {
+		s.progress("filling "+s.name, rows, s.maxRow)
+		return
+	}
+	s.progress("reading "+s.name, rows, -1)
 }
 
 func (s *sheetRun) statusHeader(p pairSpec) string {
@@ -818,90 +810,81 @@ func (s *sheetRun) outHeader(p pairSpec, o output) string {
 	return p.label + " " + o.header
 }
 
-// writeHeaders writes the result headers in the header row, in the style
-// of the first input header, and sets the widths of the result columns.
-func (s *sheetRun) writeHeaders(ss *SheetSummary) error {
+// outHeaderAt is the header of result column i.
+func (s *sheetRun) outHeaderAt(i int) string {
 	width := 1 + len(s.outs)
-	for i := range ss.Pairs {
-		base := s.maxCol + i*width
-		if err := s.f.SetColWidth(s.name, colLetter(base), colLetter(base), 30); err != nil {
-			return fmt.Errorf("set the width of column %s on sheet %q: %w", colLetter(base), s.name, err)
-		}
-		for k, o := range s.outs {
-			if err := s.f.SetColWidth(s.name, colLetter(base+1+k), colLetter(base+1+k), o.width); err != nil {
-				return fmt.Errorf("set the width of column %s on sheet %q: %w", colLetter(base+1+k), s.name, err)
-			}
-		}
-	}
-	if s.headerRow == 0 {
-		return nil
-	}
-	headers := make([]any, 0, len(ss.Pairs)*width)
-	for _, p := range ss.Pairs {
-		for _, c := range p.Outputs {
-			headers = append(headers, c.Header)
-		}
-	}
-	first := cellName(s.maxCol, s.headerRow)
-	if err := s.f.SetSheetRow(s.name, first, &headers); err != nil {
-		return fmt.Errorf("write the result headers on sheet %q: %w", s.name, err)
-	}
-	style, err := s.f.GetCellStyle(s.name, cellName(s.pairs[0].in[0].idx, s.headerRow))
-	if err == nil && style != 0 {
-		last := cellName(s.maxCol+len(headers)-1, s.headerRow)
-		if err := s.f.SetCellStyle(s.name, first, last, style); err != nil {
-			return fmt.Errorf("style the result headers on sheet %q: %w", s.name, err)
-		}
-	}
-	if s.unitRow == 0 {
-		return nil
-	}
-	// A sheet with a row of units under its header gets the units of the
-	// results there too, in the style of the first input's unit cell.
-	unitCells := make([]any, 0, len(headers))
-	for _, p := range ss.Pairs {
-		for _, c := range p.Outputs {
-			unitCells = append(unitCells, c.Unit)
-		}
-	}
-	first = cellName(s.maxCol, s.unitRow)
-	if err := s.f.SetSheetRow(s.name, first, &unitCells); err != nil {
-		return fmt.Errorf("write the result units on sheet %q: %w", s.name, err)
-	}
-	style, err = s.f.GetCellStyle(s.name, cellName(s.pairs[0].in[0].idx, s.unitRow))
-	if err == nil && style != 0 {
-		last := cellName(s.maxCol+len(unitCells)-1, s.unitRow)
-		if err := s.f.SetCellStyle(s.name, first, last, style); err != nil {
-			return fmt.Errorf("style the result units on sheet %q: %w", s.name, err)
-		}
-	}
-	return nil
+	return s.ss.Pairs[i/width].Outputs[i%width].Header
 }
 
-// count adds a row's outcome to the sheet's counts.
-func (s *sheetRun) count(ss *SheetSummary, res *rowResult) {
-	ss.Rows++
+// outUnitAt is the unit of result column i, for a row of units.
+func (s *sheetRun) outUnitAt(i int) string {
+	width := 1 + len(s.outs)
+	return s.ss.Pairs[i/width].Outputs[i%width].Unit
+}
+
+// statusStyle is the style of the status cell of result column i.
+func (s *sheetRun) statusStyle(dr *dataRow, res *rowResult, i int) int {
+	pair := i / (1 + len(s.outs))
+	switch res.outcome[pair] {
+	case outcomeFailed:
+		return s.styles.xf[styleFailed]
+	case outcomeFlagged:
+		if dr.aggregate != "" {
+			return s.styles.xf[styleAggregate]
+		}
+		return s.styles.xf[styleCheck]
+	}
+	if dr.aggregate != "" {
+		return s.styles.xf[styleAggregate]
+	}
+	return s.styles.xf[styleOK]
+}
+
+// count adds a row's outcome to the sheet's counts, and lists a flagged
+// or failed row for the summary.
+func (s *sheetRun) count(ss *SheetSummary, dr *dataRow, res *rowResult, vals []any) {
 	worst := outcomeOK
 	for i, o := range res.outcome[:len(s.pairs)] {
-		p := &ss.Pairs[i]
-		switch o {
-		case outcomeOK:
-			p.OK++
-		case outcomeFlagged:
-			p.Flagged++
-		case outcomeFailed:
-			p.Failed++
+		if dr.aggregate == "" {
+			switch o {
+			case outcomeOK:
+				s.pairCounts[i][0]++
+			case outcomeFlagged:
+				s.pairCounts[i][1]++
+			case outcomeFailed:
+				s.pairCounts[i][2]++
+			}
 		}
 		if o > worst {
 			worst = o
 		}
 	}
-	switch worst {
-	case outcomeOK, outcomeBlank:
-		ss.OK++
-	case outcomeFlagged:
-		ss.Flagged++
-	case outcomeFailed:
-		ss.Failed++
+	if dr.aggregate != "" {
+		ss.Aggregate++
+	} else {
+		ss.Rows++
+		switch worst {
+		case outcomeOK, outcomeBlank:
+			ss.OK++
+		case outcomeFlagged:
+			ss.Flagged++
+		case outcomeFailed:
+			ss.Failed++
+		}
+	}
+	if worst < outcomeFlagged {
+		return
+	}
+	width := 1 + len(s.outs)
+	for i, o := range res.outcome[:len(s.pairs)] {
+		if o < outcomeFlagged {
+			continue
+		}
+		if len(s.run.sum.Listed) >= MaxListed {
+			s.run.sum.Unlisted++
+			continue
+		}
+		status, _ := vals[i*width].(string)
+		s.run.sum.Listed = append(s.run.sum.Listed, Listing{Sheet: s.name, Row: dr.row, pair: i, sheet: s, Status: status, Failed: o == outcomeFailed})
 	}
 }

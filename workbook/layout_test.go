@@ -3,13 +3,16 @@ package workbook_test
 import (
 	"archive/zip"
 	"bytes"
+	"context"
 	"errors"
 	"fmt"
 	"io"
 	"math/rand"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
+	"unicode/utf16"
 
 	"github.com/xuri/excelize/v2"
 
@@ -207,17 +210,31 @@ func TestSheetLimits(t *testing.T) {
 	}
 }
 
-// TestMaxCells: a sheet beyond the cell bound is refused before it is
-// loaded.
-func TestMaxCells(t *testing.T) {
+// TestMemory: a workbook whose parts loaded whole, or whose directory,
+// exceed half the memory bound is refused before anything is written;
+// the rows do not count.
+func TestMemory(t *testing.T) {
 	o := opts()
-	o.MaxCells = 20 // 3 rows × (3 data + 6 result columns) = 27 cells
+	o.Memory = 2 << 10 // half of it holds the directory of one part
 	err := fillErr(t, goodWorkbook(t), "good.xlsx", o)
-	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "27 cells") {
-		t.Errorf("error %v, want ErrTooLarge counting 27 cells", err)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "parts") {
+		t.Errorf("error %v, want ErrTooLarge counting the parts", err)
 	}
-	o.MaxCells = 27
-	fillBytes(t, goodWorkbook(t), "good.xlsx", o)
+	// 300 notes of 200 characters: 60 kB of shared strings.
+	rows := [][]any{{"Point", "P [bar]", "T [°C]", "Note"}}
+	for i := range 300 {
+		rows = append(rows, []any{"A", 10.0, 300.0, fmt.Sprintf("%03d %s", i, strings.Repeat("steady ", 28))})
+	}
+	data := save(t, sheetOf(t, rows...))
+	o.Memory = 96 << 10
+	err = fillErr(t, data, "notes.xlsx", o)
+	if !errors.Is(err, workbook.ErrTooLarge) || !strings.Contains(err.Error(), "in memory") {
+		t.Errorf("error %v, want ErrTooLarge saying what memory holds", err)
+	}
+	o.Memory = 1 << 20
+	if _, sum := fillBytes(t, data, "notes.xlsx", o); sum.Rows != 300 {
+		t.Errorf("%d rows filled under 1 MiB, want 300", sum.Rows)
+	}
 }
 
 // TestHeaderRow: a header row below the rows searched is named with
@@ -312,4 +329,186 @@ func TestUnitRowWithMap(t *testing.T) {
 		t.Errorf("sheet %+v; want header row 1, units in row 2, 1 row ok", s)
 	}
 	verifyRow(t, f, "Data", 3, [2]string{"6", "330"}, [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}, outCols{"D", "E", "F", "G", "H", "I"})
+}
+
+// utf16Of encodes s as UTF-16 with a byte-order mark.
+func utf16Of(s string, bigEndian bool) []byte {
+	b := []byte{0xFF, 0xFE}
+	if bigEndian {
+		b = []byte{0xFE, 0xFF}
+	}
+	for _, u := range utf16.Encode([]rune(s)) {
+		if bigEndian {
+			b = append(b, byte(u>>8), byte(u))
+		} else {
+			b = append(b, byte(u), byte(u>>8))
+		}
+	}
+	return b
+}
+
+// TestCSVEncodings: every line end, encoding and separator a plant logger
+// or an office program writes is read into the same three points, or is
+// refused with a message (issue 12: CR-only line ends gave "0 rows" and
+// exit 0; UTF-16 failed every row with exit 0).
+func TestCSVEncodings(t *testing.T) {
+	rows := func(sep, nl string) string {
+		return strings.Join([]string{
+			"Point" + sep + "Drum pressure [barg]" + sep + "Steam temperature [°C]",
+			"K1" + sep + "41.37" + sep + "415.7",
+			"K2" + sep + "12.5" + sep + "260",
+			"K3" + sep + "6" + sep + "330", ""}, nl)
+	}
+	ins := [2]in{{"B", fn.Pressure, "barg"}, {"C", fn.Temperature, "°C"}}
+	for _, tc := range []struct {
+		name string
+		data []byte
+	}{
+		{"LF, comma", []byte(rows(",", "\n"))},
+		{"CRLF, comma", []byte(rows(",", "\r\n"))},
+		{"CR only, comma", []byte(rows(",", "\r"))},
+		{"UTF-8 BOM, semicolon", append([]byte("\xEF\xBB\xBF"), rows(";", "\r\n")...)},
+		{"tab", []byte(rows("\t", "\n"))},
+		{"UTF-16LE BOM, tab", utf16Of(rows("\t", "\r\n"), false)},
+		{"UTF-16BE BOM, comma, CR only", utf16Of(rows(",", "\r"), true)},
+		{"semicolon, decimal commas", []byte(strings.ReplaceAll(strings.ReplaceAll(rows(";", "\n"), "41.37", "41,37"), "12.5", "12,5"))},
+	} {
+		f, sum := fillBytes(t, tc.data, "log.csv", opts())
+		if sum.Rows != 3 || sum.OK != 3 {
+			t.Errorf("%s: %d rows, %d ok, want 3 and 3", tc.name, sum.Rows, sum.OK)
+			continue
+		}
+		if n := verifySheet(t, f, "log", 2, 4, ins, outCols{"D", "E", "F", "G", "H", "I"}); n != 3 {
+			t.Errorf("%s: %d rows verified, want 3", tc.name, n)
+		}
+	}
+	for _, tc := range []struct {
+		name string
+		data []byte
+		say  string
+	}{
+		{"UTF-16 without a mark", utf16Of(rows(",", "\n"), false)[2:], "UTF-16 text without a byte-order mark"},
+		{"UTF-32", append([]byte{0xFF, 0xFE, 0, 0}, 'P', 0, 0, 0), "UTF-32"},
+		{"UTF-16 cut in a character", append(utf16Of(rows(",", "\n"), false), 'x'), "cut off"},
+	} {
+		err := fillErr(t, tc.data, "log.csv", opts())
+		if !errors.Is(err, workbook.ErrNotWorkbook) || !strings.Contains(err.Error(), tc.say) {
+			t.Errorf("%s: %v, want ErrNotWorkbook saying %q", tc.name, err, tc.say)
+		}
+	}
+}
+
+// TestDigits: the number formats of the results follow Options.Digits,
+// by property and for all, and the stored values keep every digit.
+func TestDigits(t *testing.T) {
+	o := opts()
+	o.Digits = map[string]int{"h": 1, "": 3}
+	f, _ := fillBytes(t, goodWorkbook(t), "good.xlsx", o)
+	code := func(cell string) string {
+		id, err := f.GetCellStyle("Data", cell)
+		mustf(t, err, "style of %s", cell)
+		st, err := f.GetStyle(id)
+		mustf(t, err, "style %d", id)
+		if st.CustomNumFmt == nil {
+			return ""
+		}
+		return *st.CustomNumFmt
+	}
+	header := func(col string) string { return raw(t, f, "Data", col+"1") }
+	for _, col := range []string{"E", "F", "G"} {
+		want := "0.000"
+		if strings.HasPrefix(header(col), "h ") {
+			want = "0.0"
+		}
+		if got := code(col + "2"); got != want {
+			t.Errorf("%s (%s) number format %q, want %q", col, header(col), got, want)
+		}
+	}
+	if v := raw(t, f, "Data", "E2"); len(v) < 10 {
+		t.Errorf("E2 stores %q, want the full value", v)
+	}
+	o.Digits = map[string]int{"h": 16}
+	if err := fillErr(t, goodWorkbook(t), "good.xlsx", o); !errors.Is(err, workbook.ErrBadOption) {
+		t.Errorf("16 digits: %v, want ErrBadOption", err)
+	}
+}
+
+// TestEmptyStyledCells: empty cells that carry a style (a layout's grid)
+// in the result columns give way to the results, which keep the row's
+// cells in column order and take the fill's own styles.
+func TestEmptyStyledCells(t *testing.T) {
+	f := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{10.0, 300.0}, []any{20.0, 400.0})
+	pct, err := f.NewStyle(&excelize.Style{NumFmt: 10})
+	mustf(t, err, "style")
+	mustf(t, f.SetCellStyle("Data", "C2", "K3", pct), "style the empty cells")
+	out, sum := fillBytes(t, save(t, f), "grid.xlsx", opts())
+	if sum.OK != 2 {
+		t.Fatalf("%d ok, want 2", sum.OK)
+	}
+	if n := verifySheet(t, out, "Data", 2, 3, [2]in{{"A", fn.Pressure, "bar"}, {"B", fn.Temperature, "°C"}}, outCols{"C", "D", "E", "F", "G", "H"}); n != 2 {
+		t.Errorf("%d rows verified, want 2", n)
+	}
+	id, _ := out.GetCellStyle("Data", "D2")
+	st, err := out.GetStyle(id)
+	mustf(t, err, "style of D2")
+	if st.NumFmt == 10 || st.CustomNumFmt == nil {
+		t.Errorf("D2 (h) has the grid's percent format, want the fill's own")
+	}
+	if id, _ := out.GetCellStyle("Data", "K2"); id != pct {
+		t.Errorf("K2, past the results, has style %d, want the grid's %d", id, pct)
+	}
+}
+
+// TestPrefixedSheet: a sheet written with a prefix on the main namespace
+// (<x:row>, as some generators write it) gets result cells with the same
+// prefix.
+func TestPrefixedSheet(t *testing.T) {
+	data := patchPackage(t, goodWorkbook(t), func(p map[string][]byte) {
+		sh := "xl/worksheets/sheet1.xml"
+		b := regexp.MustCompile(`<(/?)([A-Za-z])`).ReplaceAll(p[sh], []byte("<${1}x:$2"))
+		b = replaceOnce(t, b, `xmlns="http://schemas.openxmlformats.org/spreadsheetml/2006/main"`, `xmlns:x="http://schemas.openxmlformats.org/spreadsheetml/2006/main"`)
+		p[sh] = b
+	})
+	var out bytes.Buffer
+	if _, err := workbook.Fill(context.Background(), bytes.NewReader(data), "x.xlsx", opts(), &out); err != nil {
+		t.Fatal(err)
+	}
+	zr, err := zip.NewReader(bytes.NewReader(out.Bytes()), int64(out.Len()))
+	mustf(t, err, "read the output")
+	sheet := partBytes(t, zr, "xl/worksheets/sheet1.xml")
+	if _, err := parseTree(sheet); err != nil {
+		t.Fatalf("the filled sheet is not XML: %v", err)
+	}
+	if !bytes.Contains(sheet, []byte(`<x:c r="D2" s=`)) || bytes.Contains(sheet, []byte("<c ")) {
+		t.Errorf("result cells without the sheet's prefix: %.600s", sheet[bytes.Index(sheet, []byte("sheetData")):])
+	}
+}
+
+// TestAggregateRows: a row whose inputs all aggregate their own columns
+// is solved and marked, and not counted; a formula of another kind, or an
+// aggregate beside a reading, is a test point.
+func TestAggregateRows(t *testing.T) {
+	f := sheetOf(t, []any{"P [bar]", "T [°C]"}, []any{10.0, 300.0}, []any{20.0, 400.0})
+	for cell, fx := range map[string]string{
+		"A4": "MIN(A2:A3)", "B4": "MAX(B2:B3)", // aggregate row
+		"A5": "SUM(A2:A3)", "B5": "_xlfn.AVERAGE(B$2:B$3)", // aggregate row
+		"A6": "A2*2", "B6": "AVERAGE(B2:B3)", // not: A6 is no aggregate
+		"A7": "AVERAGE(B2:B3)", // not: A7 averages another column, and B7 is a reading
+	} {
+		mustf(t, f.SetCellFormula("Data", cell, fx), "formula %s", cell)
+	}
+	mustf(t, f.SetCellValue("Data", "B7", 350.0), "set B7")
+	out, sum := fillBytes(t, save(t, f), "agg.xlsx", opts())
+	if sum.Aggregate != 2 || sum.Rows != 4 {
+		t.Errorf("%d aggregate rows, %d test points; want 2 and 4", sum.Aggregate, sum.Rows)
+	}
+	for row, want := range map[int]bool{4: true, 5: true, 6: false, 7: false} {
+		status := raw(t, out, "Data", "C"+strconv.Itoa(row))
+		if got := strings.HasPrefix(status, "aggregate row ("); got != want {
+			t.Errorf("row %d status %q; aggregate %v, want %v", row, status, got, want)
+		}
+	}
+	if got := raw(t, out, "Data", "C4"); !strings.Contains(got, "MIN/MAX of the column") {
+		t.Errorf("C4 = %q, want the aggregates named", got)
+	}
 }

@@ -57,18 +57,25 @@ type Options struct {
 	// UnzipSizeLimit is the most the input may unpack to, bytes; 0 means
 	// DefaultUnzipSizeLimit.
 	UnzipSizeLimit int64
-	// MaxCells bounds the rows × columns (results included) of a sheet to
-	// fill, checked before the sheet is loaded; 0 means no bound. A filled
-	// sheet takes about CellMemory bytes of memory per cell, so a server
-	// sets this from the memory it can give one request.
-	MaxCells int64
+	// Memory bounds what the fill holds in memory, bytes: the parts it
+	// loads whole (the workbook part, the styles, the shared strings,
+	// existing notes) may take half of it, and a workbook whose formulas
+	// need calculating is loaded into excelize only within a 32nd. 0
+	// means DefaultMemory. The rows are streamed, so the size of a sheet
+	// does not count.
+	Memory int64
+	// Digits sets the decimals shown for results, by property symbol; the
+	// key "" sets every property not named. The value stored is always
+	// the full float64.
+	Digits map[string]int
 }
 
-// CellMemory is the peak memory of a fill per cell of the filled sheet,
-// bytes, as measured with the 100,000-row benchmark sheet (14 cells a row,
-// 1.2 GB peak resident memory); almost all of it is excelize's model of the
-// sheet and the garbage collector's headroom.
-const CellMemory = 870
+// DefaultMemory is Options.Memory when it is 0.
+const DefaultMemory = 1 << 30
+
+// MaxListed is the most flagged and failed rows the summary sheet lists
+// with links; the status columns show every one.
+const MaxListed = 1000
 
 // Summary tells what a fill did.
 type Summary struct {
@@ -79,7 +86,20 @@ type Summary struct {
 	Flagged      int    // rows solved with a "check:" status, none failed
 	Failed       int    // rows with a point that has no values
 	Blank        int    // rows without inputs, skipped
+	Aggregate    int    // rows of aggregate formulas (an average row), solved but not test points
 	Notes        []string
+	Listed       []Listing // flagged and failed points, at most MaxListed
+	Unlisted     int       // flagged and failed points beyond MaxListed
+}
+
+// Listing is a flagged or failed point, as the summary sheet lists it.
+type Listing struct {
+	Sheet  string
+	Row    int
+	Status string
+	Failed bool
+	pair   int
+	sheet  *sheetRun
 }
 
 // SheetSummary tells what a fill did on one sheet.
@@ -95,6 +115,7 @@ type SheetSummary struct {
 	Flagged   int
 	Failed    int
 	Blank     int
+	Aggregate int // aggregate rows, not counted in Rows
 	Comments  int // problem comments added
 }
 

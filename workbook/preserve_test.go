@@ -224,7 +224,7 @@ func TestFillFileSafety(t *testing.T) {
 	if _, err := workbook.FillFile(ctx, in, "", opts(), progress); err != nil {
 		t.Fatalf("FillFile: %v", err)
 	}
-	if want := []string{"loading Readings 0/-1", "filling Readings 0/4", "filling Readings 4/4", "saving tests_filled.xlsx 0/-1"}; !reflect.DeepEqual(stages, want) {
+	if want := []string{"reading Readings 0/-1", "reading Notes 0/-1", "filling Readings 0/9", "filling Readings 9/9", "saving tests_filled.xlsx 0/-1"}; !reflect.DeepEqual(stages, want) {
 		t.Errorf("progress %q, want %q", stages, want)
 	}
 	first := sum256(t, out)

@@ -27,11 +27,14 @@ type rowResult struct {
 	comments []pendingComment
 }
 
-// pendingComment is a comment to add: on cell, or on fallback (the status
-// cell) when cell already has one.
+// pendingComment is a comment to add: on cell, or on the status cell of
+// its pair and row when cell is "" or already has one. The status cell is
+// named once the result columns are placed, after the first pass.
 type pendingComment struct {
-	cell, fallback string
-	text           string
+	cell string
+	pair int
+	row  int
+	text string
 }
 
 // solveRow solves every pair of row dr and puts the status and results in
@@ -48,18 +51,14 @@ func (s *sheetRun) solveRow(dr *dataRow, out []any) rowResult {
 // solvePair solves pair i of row dr.
 func (s *sheetRun) solvePair(dr *dataRow, i int, out []any, res *rowResult) uint8 {
 	p := &s.pairs[i]
-	statusCell := cellName(s.maxCol+i*(1+len(s.outs)), dr.row)
 	a, b := dr.vals[2*i], dr.vals[2*i+1]
 	cells := [2]string{cellName(p.in[0].idx, dr.row), cellName(p.in[1].idx, dr.row)}
 	if a == "" && b == "" {
 		return outcomeBlank
 	}
 	fail := func(status, cell, comment string) uint8 {
-		out[0] = status
-		if cell == "" {
-			cell = statusCell
-		}
-		res.comments = append(res.comments, pendingComment{cell: cell, fallback: statusCell, text: "steamcell: " + comment})
+		out[0] = s.aggregateStatus(dr, status)
+		res.comments = append(res.comments, pendingComment{cell: cell, pair: i, row: dr.row, text: "steamcell: " + comment})
 		return outcomeFailed
 	}
 	var note []string
@@ -89,12 +88,13 @@ func (s *sheetRun) solvePair(dr *dataRow, i int, out []any, res *rowResult) uint
 		{Name: p.in[0].sym, Text: a, Unit: p.in[0].unit},
 		{Name: p.in[1].sym, Text: b, Unit: p.in[1].unit},
 	}
-	st, _, err := point.Solve(given, s.opt.Point)
-	if err != nil {
+	// The one row path of every bulk caller (point.Plan.Row), with an
+	// answer reused from row to row.
+	if _, err := s.rowPlan.Row(given, &s.ans); err != nil {
 		status, cell, comment := s.explain(err, p, cells, [2]string{a, b})
 		return fail(status, cell, comment)
 	}
-	ans := point.Render(&st, s.syms, s.opt.Point)
+	ans, st := &s.ans, s.ans.State()
 	k := 0
 	for j, o := range s.outs {
 		switch o.sym {
@@ -109,9 +109,9 @@ func (s *sheetRun) solvePair(dr *dataRow, i int, out []any, res *rowResult) uint
 			k++
 		}
 	}
-	status, comment := s.check(&st, ans.Warnings)
+	status, comment := s.check(st, ans.Warnings)
 	if comment != "" {
-		res.comments = append(res.comments, pendingComment{cell: statusCell, fallback: statusCell, text: "steamcell: " + comment})
+		res.comments = append(res.comments, pendingComment{pair: i, row: dr.row, text: "steamcell: " + comment})
 	}
 	outcome := outcomeFlagged
 	if status == "" {
@@ -120,8 +120,18 @@ func (s *sheetRun) solvePair(dr *dataRow, i int, out []any, res *rowResult) uint
 	if len(note) > 0 {
 		status += " (" + strings.Join(note, "; ") + ")"
 	}
-	out[0] = status
+	out[0] = s.aggregateStatus(dr, status)
 	return outcome
+}
+
+// aggregateStatus marks the status of a row whose inputs are aggregates
+// over their columns (an average row under the readings): it is solved,
+// but it is not a test point.
+func (s *sheetRun) aggregateStatus(dr *dataRow, status string) string {
+	if dr.aggregate == "" {
+		return status
+	}
+	return "aggregate row (" + dr.aggregate + " of the column), not a test point: " + status
 }
 
 // check returns a "check: …" status and a comment for a solved point that

@@ -1,11 +1,9 @@
 package workbook
 
 import (
+	"bytes"
 	"fmt"
-	"strconv"
 	"strings"
-
-	"github.com/xuri/excelize/v2"
 
 	"steamcell/fn/point"
 	"steamcell/fn/units"
@@ -31,24 +29,12 @@ func isSummarySheet(name string) bool {
 	return strings.HasPrefix(strings.ToLower(name), summaryName)
 }
 
-// writeSummary adds the summary sheet.
-func (r *run) writeSummary() error {
-	name := summaryName
-	for n := 2; ; n++ {
-		if idx, _ := r.f.GetSheetIndex(name); idx < 0 {
-			break
-		}
-		name = summaryName + " " + strconv.Itoa(n)
-	}
-	if _, err := r.f.NewSheet(name); err != nil {
-		return fmt.Errorf("add the summary sheet: %w", err)
-	}
-	r.sum.SummarySheet = name
-	bold, err := r.f.NewStyle(&excelize.Style{Font: &excelize.Font{Bold: true}})
-	if err != nil {
-		return fmt.Errorf("add a style for the summary sheet: %w", err)
-	}
-	w := &sheetWriter{f: r.f, sheet: name}
+// summaryXML is the summary sheet, a part of its own written here: text
+// as inline strings (the shared strings stay as they were), the fill's
+// own styles, and links to the flagged and failed rows.
+func (r *run) summaryXML() []byte {
+	w := &summaryWriter{st: r.styles}
+	bold := r.styles.xf[styleTitle]
 	set := r.opt.Point.Set
 	patm := r.opt.Point.Patm
 	if patm == 0 {
@@ -82,6 +68,7 @@ func (r *run) writeSummary() error {
 	w.row(0, "  flagged (check)", r.sum.Flagged)
 	w.row(0, "  failed (no values)", r.sum.Failed)
 	w.row(0, "Blank rows skipped", r.sum.Blank)
+	w.row(0, "Aggregate rows (solved, not test points)", r.sum.Aggregate)
 	for _, n := range r.sum.Notes {
 		w.row(0, "Note", n)
 	}
@@ -111,25 +98,44 @@ func (r *run) writeSummary() error {
 	w.row(0, "Rule", `Input columns are found in the header row by their headers ("Drum pressure [barg]") and paired left to right (1st with 2nd, 3rd with 4th); a column map (--map) overrides.`)
 	w.skip()
 
+	w.row(bold, "Points to look at", "Status cell", "Status")
+	if len(r.sum.Listed) == 0 {
+		w.row(0, "none: every point is ok")
+	}
+	for _, l := range r.sum.Listed {
+		width := 1 + len(r.outs)
+		cell := cellName(l.sheet.firstOut+l.pair*width, l.Row)
+		style := r.styles.xf[styleCheck]
+		if l.Failed {
+			style = r.styles.xf[styleFailed]
+		}
+		w.n++
+		w.cells = append(w.cells, summaryCell{row: w.n, col: 0, text: fmt.Sprintf("%s, row %d", l.Sheet, l.Row), style: 0})
+		w.cells = append(w.cells, summaryCell{row: w.n, col: 1, text: l.Sheet + "!" + cell, style: r.styles.xf[styleLink], link: quoteSheet(l.Sheet) + "!" + cell})
+		w.cells = append(w.cells, summaryCell{row: w.n, col: 2, text: l.Status, style: style})
+	}
+	if r.sum.Unlisted > 0 {
+		w.row(0, fmt.Sprintf("and %d more; the status columns show every one", r.sum.Unlisted))
+	}
+	w.skip()
+
 	w.row(bold, "Status column")
-	w.row(0, "ok", "solved; a note in brackets when an input is a formula (its stored result is used, or steamcell calculated it)")
-	w.row(0, "check: ...", "solved, but look before use: near saturation the phase is uncertain; or a warning of the formulation")
-	w.row(0, "anything else", "the reason the row has no values; the problem cell carries a comment")
+	w.row(r.styles.xf[styleOK], "ok", "solved; a note in brackets when an input is a formula (its stored result is used, or steamcell calculated it)")
+	w.row(r.styles.xf[styleCheck], "check: ...", "solved, but look before use: near saturation the phase is uncertain; or a warning of the formulation")
+	w.row(r.styles.xf[styleAggregate], "aggregate row (...)", "a row whose inputs are AVERAGE, SUM, MIN or MAX of their columns: solved, but not counted as a test point")
+	w.row(r.styles.xf[styleFailed], "anything else", "the reason the row has no values; the problem cell carries a comment")
 	w.skip()
 
 	w.row(bold, "Cautions")
 	for _, c := range Cautions {
 		w.row(0, c)
 	}
-	if w.err != nil {
-		return fmt.Errorf("write the summary sheet: %w", w.err)
-	}
-	for col, width := range map[string]float64{"A": 30, "B": 22, "C": 40, "D": 40, "E": 16, "F": 10, "G": 10, "H": 10, "I": 10, "J": 40} {
-		if err := r.f.SetColWidth(name, col, col, width); err != nil {
-			return fmt.Errorf("set the widths of the summary sheet: %w", err)
-		}
-	}
-	return nil
+	return w.xml([]float64{34, 26, 44, 44, 16, 10, 10, 12, 12, 44})
+}
+
+// quoteSheet quotes a sheet name for a reference: 'Boiler 2'!A1.
+func quoteSheet(name string) string {
+	return "'" + strings.ReplaceAll(name, "'", "''") + "'"
 }
 
 // unitList lists the units of the results written.
@@ -158,27 +164,88 @@ func describeInput(c Column) string {
 	return s
 }
 
-// sheetWriter writes rows one under another and keeps the first error.
-type sheetWriter struct {
-	f     *excelize.File
-	sheet string
+// summaryWriter collects the cells of the summary sheet, row under row.
+type summaryWriter struct {
+	st    *styleTable
 	n     int
-	err   error
+	cells []summaryCell
 }
 
-func (w *sheetWriter) skip() { w.n++ }
+type summaryCell struct {
+	row, col int
+	text     string
+	num      int
+	isNum    bool
+	style    int
+	link     string // a place in the workbook ('Sheet'!F6); "" for none
+}
 
-func (w *sheetWriter) row(style int, vals ...any) {
+func (w *summaryWriter) skip() { w.n++ }
+
+// row writes vals (strings and ints) in a new row; style 0 is the
+// summary's text style, which the first column of a titled row shares.
+func (w *summaryWriter) row(style int, vals ...any) {
 	w.n++
-	if w.err != nil {
-		return
+	for i, v := range vals {
+		c := summaryCell{row: w.n, col: i, style: style}
+		if style == 0 || style != w.st.xf[styleTitle] && i > 0 {
+			c.style = w.st.xf[styleText]
+		}
+		switch v := v.(type) {
+		case string:
+			c.text = v
+		case int:
+			c.num, c.isNum = v, true
+		}
+		w.cells = append(w.cells, c)
 	}
-	cell, _ := excelize.CoordinatesToCellName(1, w.n)
-	if w.err = w.f.SetSheetRow(w.sheet, cell, &vals); w.err != nil {
-		return
+}
+
+func (w *summaryWriter) xml(widths []float64) []byte {
+	var b bytes.Buffer
+	b.WriteString(`<?xml version="1.0" encoding="UTF-8" standalone="yes"?>` + "\n")
+	b.WriteString(`<worksheet xmlns="` + nsMain + `" xmlns:r="` + nsRelationships + `"><cols>`)
+	for i, wd := range widths {
+		fmt.Fprintf(&b, `<col min="%d" max="%d" width="%.1f" customWidth="1"/>`, i+1, i+1, wd)
 	}
-	if style != 0 {
-		last, _ := excelize.CoordinatesToCellName(len(vals), w.n)
-		w.err = w.f.SetCellStyle(w.sheet, cell, last, style)
+	b.WriteString(`</cols><sheetData>`)
+	row := 0
+	for _, c := range w.cells {
+		if c.row != row {
+			if row != 0 {
+				b.WriteString(`</row>`)
+			}
+			row = c.row
+			fmt.Fprintf(&b, `<row r="%d">`, row)
+		}
+		ref := cellName(c.col, c.row)
+		if c.isNum {
+			fmt.Fprintf(&b, `<c r="%s" s="%d"><v>%d</v></c>`, ref, w.st.xf[styleText], c.num)
+			continue
+		}
+		if c.text == "" {
+			continue
+		}
+		fmt.Fprintf(&b, `<c r="%s" s="%d" t="inlineStr"><is><t xml:space="preserve">%s</t></is></c>`, ref, c.style, escapeText(c.text))
 	}
+	if row != 0 {
+		b.WriteString(`</row>`)
+	}
+	b.WriteString(`</sheetData>`)
+	first := true
+	for _, c := range w.cells {
+		if c.link == "" {
+			continue
+		}
+		if first {
+			b.WriteString(`<hyperlinks>`)
+			first = false
+		}
+		fmt.Fprintf(&b, `<hyperlink ref="%s" location="%s" display="%s"/>`, cellName(c.col, c.row), escapeAttr(c.link), escapeAttr(c.text))
+	}
+	if !first {
+		b.WriteString(`</hyperlinks>`)
+	}
+	b.WriteString(`</worksheet>`)
+	return b.Bytes()
 }

@@ -7,13 +7,16 @@ import (
 	"io"
 	"os"
 	"os/signal"
+	"strconv"
 	"strings"
+	"syscall"
 	"time"
 
 	"github.com/schollz/progressbar/v3"
 	"github.com/spf13/cobra"
 	"golang.org/x/term"
 
+	"steamcell/fn/point"
 	"steamcell/fn/units"
 	"steamcell/workbook"
 )
@@ -32,6 +35,7 @@ func (a *App) fillCommand() *cobra.Command {
 		margin     float64
 		force      bool
 		unzipLimit int64
+		digits     string
 	)
 	cmd := &cobra.Command{
 		Use:   "fill IN.xlsx",
@@ -88,13 +92,25 @@ T changes the phase.`,
 			if add != "" {
 				opt.Add = strings.Split(add, ",")
 			}
+			if opt.Digits, err = parseDigits(digits); err != nil {
+				return usageError{err}
+			}
 			if output == "" {
 				output = workbook.DefaultOutput(args[0])
 			}
-			ctx, stop := signal.NotifyContext(cmd.Context(), os.Interrupt)
+			// Either signal cancels the fill at its next check, in any phase;
+			// FillFile then removes its temporary file.
+			ctx, stop := signal.NotifyContext(cmd.Context(), os.Interrupt, syscall.SIGTERM)
 			defer stop()
 			bar := a.progressBar()
-			sum, err := workbook.FillFile(ctx, args[0], output, opt, bar.update)
+			progress := bar.update
+			if fillProgressHook != nil {
+				progress = func(stage string, done, total int) {
+					bar.update(stage, done, total)
+					fillProgressHook(ctx, stage)
+				}
+			}
+			sum, err := workbook.FillFile(ctx, args[0], output, opt, progress)
 			bar.finish()
 			if err != nil {
 				if errors.Is(err, workbook.ErrBadOption) || errors.Is(err, workbook.ErrSamePath) {
@@ -119,7 +135,42 @@ T changes the phase.`,
 	f.Float64Var(&margin, "margin", workbook.DefaultMargin, "flag single-phase points this close to saturation, K; 0 turns the flag off")
 	f.BoolVar(&force, "force", false, "replace the output file if it exists")
 	f.Int64Var(&unzipLimit, "unzip-limit", workbook.DefaultUnzipSizeLimit>>20, "refuse an input that unpacks to more than this, MiB")
+	f.StringVar(&digits, "digits", "", `decimals shown for results: "3" for all, or "h=1,s=5" by property (the full value is stored)`)
 	return cmd
+}
+
+// fillProgressHook, when set (by the signal tests), is told every stage
+// of a fill besides the progress bar, from the fill's goroutine, with the
+// context a signal cancels.
+var fillProgressHook func(ctx context.Context, stage string)
+
+// parseDigits reads --digits: a number of decimals for every property,
+// or symbol=decimals pairs separated by commas; "" means the defaults.
+func parseDigits(text string) (map[string]int, error) {
+	if strings.TrimSpace(text) == "" {
+		return nil, nil
+	}
+	out := map[string]int{}
+	for _, item := range strings.Split(text, ",") {
+		sym, val, named := strings.Cut(strings.TrimSpace(item), "=")
+		if !named {
+			sym, val = "", sym
+		}
+		d, err := strconv.Atoi(strings.TrimSpace(val))
+		if err != nil {
+			return nil, fmt.Errorf("--digits %q: %q is not a number of decimals; write e.g. 3 or h=1,s=5", text, val)
+		}
+		sym = strings.TrimSpace(sym)
+		if sym != "" {
+			syms, err := point.Symbols([]string{sym})
+			if err != nil {
+				return nil, fmt.Errorf("--digits %q: %v", text, err)
+			}
+			sym = syms[0]
+		}
+		out[sym] = d
+	}
+	return out, nil
 }
 
 // fillBar is the progress bar of a fill: on the error stream when it is a
@@ -172,8 +223,12 @@ func writeFillReport(w io.Writer, output string, sum *workbook.Summary) error {
 			}
 			cols = append(cols, c)
 		}
-		fmt.Fprintf(w, "sheet %q: inputs %s, header row %d: %d rows, %d ok, %d flagged, %d failed, %d blank skipped\n",
-			s.Name, strings.Join(cols, "; "), s.HeaderRow, s.Rows, s.OK, s.Flagged, s.Failed, s.Blank)
+		agg := ""
+		if s.Aggregate > 0 {
+			agg = fmt.Sprintf(", %d aggregate (not test points)", s.Aggregate)
+		}
+		fmt.Fprintf(w, "sheet %q: inputs %s, header row %d: %d rows, %d ok, %d flagged, %d failed, %d blank skipped%s\n",
+			s.Name, strings.Join(cols, "; "), s.HeaderRow, s.Rows, s.OK, s.Flagged, s.Failed, s.Blank, agg)
 		if s.Note != "" {
 			fmt.Fprintf(w, "  note: %s\n", s.Note)
 		}

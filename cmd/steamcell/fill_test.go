@@ -3,6 +3,7 @@ package main
 import (
 	"os"
 	"path/filepath"
+	"reflect"
 	"strings"
 	"testing"
 
@@ -11,7 +12,7 @@ import (
 
 // writeTestBook writes a small workbook of p,T readings for the fill
 // command.
-func writeTestBook(t *testing.T, path string) {
+func writeTestBook(t testing.TB, path string) {
 	t.Helper()
 	f := excelize.NewFile()
 	defer f.Close()
@@ -110,6 +111,28 @@ func TestFillExitCodes(t *testing.T) {
 		code, stdout, stderr := runApp(t, tc.args...)
 		if code != tc.want || !strings.Contains(stdout+stderr, tc.say) {
 			t.Errorf("steamcell %q: exit %d, output %q %q; want %d saying %q", tc.args, code, stdout, stderr, tc.want, tc.say)
+		}
+	}
+}
+
+// TestParseDigits: --digits takes decimals for all properties or by
+// symbol, and refuses what is neither.
+func TestParseDigits(t *testing.T) {
+	for _, tc := range []struct {
+		in   string
+		want map[string]int
+		bad  bool
+	}{
+		{"", nil, false},
+		{"3", map[string]int{"": 3}, false},
+		{"h=1, s=5", map[string]int{"h": 1, "s": 5}, false},
+		{"T=2,4", map[string]int{"t": 2, "": 4}, false},
+		{"h=x", nil, true},
+		{"zz=2", nil, true},
+	} {
+		got, err := parseDigits(tc.in)
+		if (err != nil) != tc.bad || !tc.bad && !reflect.DeepEqual(got, tc.want) {
+			t.Errorf("parseDigits(%q) = %v, %v; want %v (error %v)", tc.in, got, err, tc.want, tc.bad)
 		}
 	}
 }

@@ -114,7 +114,7 @@ are still taken for --drain-delay, then batches being streamed end with a
 				Logger:           log,
 				MaxBulk:          maxBulk,
 				Version:          Version,
-				Workbook:         workbookFiller{maxCells: int64(workbookMemory) / workbook.CellMemory},
+				Workbook:         workbookFiller{memory: int64(workbookMemory)},
 			})
 			return a.serve(cmd.OutOrStdout(), srv, srv.HTTPServer(addr), log, token != "", stopTimes{drainDelay, shutdownTimeout})
 		},
@@ -130,7 +130,7 @@ are still taken for --drain-delay, then batches being streamed end with a
 	f.Var(&maxBody, "max-body", "largest /batch body (e.g. 256MiB)")
 	f.Var(&maxWorkbook, "max-workbook", "largest /workbook upload")
 	f.Var(&maxHeader, "max-header", "largest request line and headers")
-	f.Var(&workbookMemory, "workbook-memory", "memory one /workbook fill may take; bounds the cells of a sheet")
+	f.Var(&workbookMemory, "workbook-memory", "memory one /workbook fill may take; bounds the parts it loads whole (rows are streamed)")
 	f.DurationVar(&readTimeout, "read-timeout", server.DefaultReadTimeout, "longest wait for a request (a batch body: between chunks)")
 	f.DurationVar(&writeTimeout, "write-timeout", server.DefaultWriteTimeout, "longest wait to write an answer (a batch answer: between chunks)")
 	f.DurationVar(&idleTimeout, "idle-timeout", server.DefaultIdleTimeout, "how long an idle keep-alive connection stays open")
@@ -206,11 +206,11 @@ func (a *App) serve(out io.Writer, srv *server.Server, hs *http.Server, log *slo
 
 // workbookFiller fills uploads of POST /workbook with package workbook.
 type workbookFiller struct {
-	maxCells int64 // most cells of a filled sheet, from --workbook-memory
+	memory int64 // what one fill may hold in memory, from --workbook-memory
 }
 
 func (w workbookFiller) Fill(ctx context.Context, in io.Reader, name string, opts server.WorkbookOptions, out io.Writer) (any, error) {
-	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, MaxCells: w.maxCells}, out)
+	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, Memory: w.memory}, out)
 	var we *workbook.Error
 	if errors.As(err, &we) {
 		return nil, server.InputProblem(err)
