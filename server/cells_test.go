@@ -271,3 +271,23 @@ func BenchmarkCalcProbe(b *testing.B) {
 		})
 	}
 }
+
+// A refused token on a cell route is one line of text, as the route's other
+// errors are, so that the cell shows why (review of issue 15: only
+// /state/{property} answered it as text).
+func TestUnauthorizedCellRoutesAnswerText(t *testing.T) {
+	srv, _ := newServer(t, server.Config{Token: "s3cret-token"})
+	for _, target := range []string{
+		"/state/h?p=6barg&t=330C", "/state/status?p=6barg&t=330C",
+		"/saturation/t?p=10bar", "/process/expansion/efficiency?p1=60bar&t1=480C&p2=12bar&t2=280C",
+	} {
+		w := get(srv, target)
+		if w.Code != http.StatusUnauthorized || !strings.HasPrefix(w.Header().Get("Content-Type"), "text/plain") ||
+			!strings.HasPrefix(w.Body.String(), "unauthorized: ") {
+			t.Errorf("GET %s without the token: %d %q %q, want 401 text \"unauthorized: …\"", target, w.Code, w.Header().Get("Content-Type"), w.Body)
+		}
+	}
+	if w := get(srv, "/state?p=6barg&t=330C"); !strings.HasPrefix(w.Header().Get("Content-Type"), "application/problem+json") {
+		t.Errorf("GET /state without the token: %q, want problem details", w.Header().Get("Content-Type"))
+	}
+}

@@ -186,7 +186,7 @@ func (s *Server) cors(c *gin.Context) {
 	}
 	c.Header("Access-Control-Expose-Headers", "Steamcell-Caution, Steamcell-Summary")
 	if c.Request.Method == http.MethodOptions && c.GetHeader("Access-Control-Request-Method") != "" {
-		c.Header("Access-Control-Allow-Methods", "GET, POST")
+		c.Header("Access-Control-Allow-Methods", "GET, HEAD, POST, OPTIONS")
 		c.Header("Access-Control-Allow-Headers", "Authorization, Content-Type")
 		c.Header("Access-Control-Max-Age", "600")
 		c.AbortWithStatus(http.StatusNoContent)
@@ -212,7 +212,7 @@ func (s *Server) authorize(c *gin.Context) {
 	if got != "" {
 		err = errorf(ErrUnauthorized, "key", "the token does not match; check key= or the Authorization header")
 	}
-	if c.FullPath() == "/state/:property" {
+	if textRoutes[c.FullPath()] {
 		s.failText(c, err)
 		return
 	}

@@ -171,32 +171,41 @@ type route struct {
 	method   string
 	path     string // in gin's syntax: "/state/:property"
 	handlers []gin.HandlerFunc
-	page     bool // the browser page, not described in openapi.json
+	form     answerForm
 }
+
+// answerForm is how a route answers, errors included.
+type answerForm int
+
+const (
+	jsonForm answerForm = iota // JSON (or CSV, a file), errors as problem details
+	textForm                   // one line of text for a cell, errors as "code: detail"
+	pageForm                   // the browser page, not described in openapi.json
+)
 
 // table is the one list of the server's routes: the router, the names of
 // metrics and logs, and the no-route message are made from it.
 func (s *Server) table() []route {
 	h := func(hs ...gin.HandlerFunc) []gin.HandlerFunc { return hs }
 	return []route{
-		{"GET", "/state", h(s.getState), false},
-		{"GET", "/state/status", h(s.getStateStatus), false},
-		{"GET", "/state/:property", h(s.getStateProperty), false},
-		{"GET", "/saturation", h(s.getSaturation), false},
-		{"GET", "/saturation/:property", h(s.getSaturationProperty), false},
-		{"GET", "/process/:kind", h(s.getProcess), false},
-		{"GET", "/process/:kind/:result", h(s.getProcessResult), false},
-		{"POST", "/batch", h(s.limitBulk, s.postBatch), false},
-		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook), false},
-		{"GET", "/openapi.json", h(s.getOpenAPI), false},
-		{"GET", "/healthz", h(s.getHealth), false},
-		{"GET", "/readyz", h(s.getReady), false},
-		{"GET", "/metrics", h(s.getMetrics), false},
-		{"GET", "/diagram/:file", h(s.getDiagram), false},
-		{"POST", "/diagram/:file", h(s.getDiagram), false},
-		{"GET", "/table", h(s.getTable), false},
-		{"GET", "/", h(s.getPage), true},
-		{"GET", "/web/*file", h(s.getAsset), true},
+		{"GET", "/state", h(s.getState), jsonForm},
+		{"GET", "/state/status", h(s.getStateStatus), textForm},
+		{"GET", "/state/:property", h(s.getStateProperty), textForm},
+		{"GET", "/saturation", h(s.getSaturation), jsonForm},
+		{"GET", "/saturation/:property", h(s.getSaturationProperty), textForm},
+		{"GET", "/process/:kind", h(s.getProcess), jsonForm},
+		{"GET", "/process/:kind/:result", h(s.getProcessResult), textForm},
+		{"POST", "/batch", h(s.limitBulk, s.postBatch), jsonForm},
+		{"POST", "/workbook", h(s.limitBulk, s.postWorkbook), jsonForm},
+		{"GET", "/openapi.json", h(s.getOpenAPI), jsonForm},
+		{"GET", "/healthz", h(s.getHealth), jsonForm},
+		{"GET", "/readyz", h(s.getReady), jsonForm},
+		{"GET", "/metrics", h(s.getMetrics), jsonForm},
+		{"GET", "/diagram/:file", h(s.getDiagram), jsonForm},
+		{"POST", "/diagram/:file", h(s.getDiagram), jsonForm},
+		{"GET", "/table", h(s.getTable), jsonForm},
+		{"GET", "/", h(s.getPage), pageForm},
+		{"GET", "/web/*file", h(s.getAsset), pageForm},
 	}
 }
 
@@ -223,6 +232,7 @@ var (
 	routeNames = map[string]string{}
 	routeList  string
 	apiPaths   []string
+	textRoutes = map[string]bool{} // routes that answer a cell in text
 )
 
 func init() {
@@ -230,8 +240,11 @@ func init() {
 	for _, rt := range (&Server{}).table() {
 		routeNames[rt.path] = openAPIPath(rt.path)
 		l = append(l, rt.method+" "+openAPIPath(rt.path))
-		if !rt.page {
+		if rt.form != pageForm {
 			apiPaths = append(apiPaths, openAPIPath(rt.path))
+		}
+		if rt.form == textForm {
+			textRoutes[rt.path] = true
 		}
 	}
 	slices.Sort(apiPaths)
