@@ -2,6 +2,7 @@ package fn
 
 import (
 	"errors"
+	"fmt"
 	"strconv"
 	"strings"
 )
@@ -135,4 +136,25 @@ func (e *InputError) Text(format func(Figure) string) string {
 		msg += ": " + d
 	}
 	return msg
+}
+
+// ParamError is a request the caller must change, found outside the
+// equations (a point, a process, a table or a diagram as asked for, a
+// query): which parameter, what kind (an errors.Is sentinel of the package
+// that found it) and a message saying what to change. The packages that
+// report such errors name it Error.
+type ParamError struct {
+	Param string // the parameter or input concerned; may be empty
+	Kind  error
+	Msg   string
+}
+
+func (e *ParamError) Error() string { return e.Msg }
+
+// Unwrap returns the kind.
+func (e *ParamError) Unwrap() error { return e.Kind }
+
+// ParamErrorf is the ParamError of kind about param, its message formatted.
+func ParamErrorf(kind error, param, format string, args ...any) *ParamError {
+	return &ParamError{Param: param, Kind: kind, Msg: fmt.Sprintf(format, args...)}
 }

@@ -42,7 +42,7 @@ var diagramTypes = map[string]string{
 func (s *Server) getDiagram(c *gin.Context) {
 	d, format, err := s.readDiagram(c)
 	if err != nil {
-		s.fail(c, diagramProblem(err))
+		s.fail(c, err)
 		return
 	}
 	buf := getBuf()
@@ -204,13 +204,3 @@ func readPostedPoints(c *gin.Context) ([]diagram.Spec, error) {
 }
 
 func appendNumberString(v float64) string { return string(appendNumber(nil, v)) }
-
-// diagramProblem gives the diagram's own error kinds the status of a
-// malformed query (400).
-func diagramProblem(err error) error {
-	var de *diagram.Error
-	if errors.As(err, &de) {
-		return errorf(ErrBadQuery, de.Param, "%s", de.Msg)
-	}
-	return err
-}

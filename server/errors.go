@@ -2,7 +2,6 @@ package server
 
 import (
 	"errors"
-	"fmt"
 	"log/slog"
 	"net/http"
 	"strconv"
@@ -13,8 +12,10 @@ import (
 	"github.com/gin-gonic/gin"
 
 	"steamcell/fn"
+	"steamcell/fn/diagram"
 	"steamcell/fn/point"
 	"steamcell/fn/process"
+	"steamcell/fn/table"
 	"steamcell/fn/uncertain"
 	"steamcell/fn/units"
 )
@@ -50,21 +51,12 @@ var (
 	ErrBadWorkbook = errors.New("workbook not usable")
 )
 
-// Error is a request error found by the server: which parameter, what kind
-// and a message saying what to change.
-type Error struct {
-	Param string
-	Kind  error
-	Msg   string
-}
-
-func (e *Error) Error() string { return e.Msg }
-
-// Unwrap returns the kind.
-func (e *Error) Unwrap() error { return e.Kind }
+// Error is the problem with a request that the caller must change
+// (fn.ParamError: which parameter, what kind, what to change).
+type Error = fn.ParamError
 
 func errorf(kind error, param, format string, args ...any) *Error {
-	return &Error{Param: param, Kind: kind, Msg: fmt.Sprintf(format, args...)}
+	return fn.ParamErrorf(kind, param, format, args...)
 }
 
 // InputProblem marks err as caused by the request's content (a file that is
@@ -142,6 +134,13 @@ var errorTable = []errorClass{
 	{process.ErrKind, http.StatusNotFound, "unknown_process"},
 	{process.ErrInput, http.StatusBadRequest, "process_input"},
 	{process.ErrRefused, http.StatusUnprocessableEntity, "process_refused"},
+
+	// Diagrams and steam tables as asked for (fn/diagram, fn/table).
+	{diagram.ErrTooMany, http.StatusBadRequest, "too_many_points"},
+	{diagram.ErrBadPoint, http.StatusBadRequest, "bad_point"},
+	{diagram.ErrBadRange, http.StatusBadRequest, "bad_axis_range"},
+	{table.ErrTooManyRows, http.StatusBadRequest, "too_many_rows"},
+	{table.ErrBadRange, http.StatusBadRequest, "bad_table_range"},
 }
 
 // internalCode is the code of every error not in errorTable.
@@ -175,22 +174,16 @@ func classify(err error) problem {
 
 // paramOf returns the input or parameter an error is about.
 func paramOf(err error) string {
-	var se *Error
-	var pe *point.Error
+	var pe *fn.ParamError // the server's, fn/point's, fn/process's, fn/table's, fn/diagram's
 	var ue *units.InputError
 	var fe *fn.InputError
-	var pre *process.Error
 	switch {
-	case errors.As(err, &se):
-		return clean(se.Param, 64)
 	case errors.As(err, &pe):
 		return clean(pe.Param, 64)
 	case errors.As(err, &ue):
 		return clean(ue.Name, 64)
 	case errors.As(err, &fe):
 		return clean(fe.Input, 64)
-	case errors.As(err, &pre):
-		return clean(pre.Param, 64)
 	}
 	return ""
 }

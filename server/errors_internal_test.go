@@ -6,6 +6,9 @@ import (
 	"log/slog"
 	"net/http"
 	"net/http/httptest"
+	"os"
+	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -144,5 +147,40 @@ func TestInternalErrorLogged(t *testing.T) {
 	}
 	if strings.Contains(logs.String(), "s3cret") {
 		t.Errorf("the key reached the log:\n%s", logs.String())
+	}
+}
+
+// TestREADMEErrorCodes: the README's table of statuses and codes lists
+// every code of errorTable under its status, and no code that is not there
+// (the table is the one source; the README is a view of it).
+func TestREADMEErrorCodes(t *testing.T) {
+	b, err := os.ReadFile("../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	listed := map[string]string{} // code -> the statuses of its README row
+	for _, line := range strings.Split(string(b), "\n") {
+		cells := strings.Split(line, "|")
+		if len(cells) < 4 || !regexp.MustCompile(`^ ?\d{3}(, \d{3})* ?$`).MatchString(cells[1]) {
+			continue
+		}
+		for _, m := range regexp.MustCompile("`([a-z_]+)`").FindAllStringSubmatch(cells[2], -1) {
+			listed[m[1]] = strings.TrimSpace(cells[1])
+		}
+	}
+	want := map[string]bool{internalCode: true}
+	for _, c := range errorTable {
+		want[c.code] = true
+		statuses, ok := listed[c.code]
+		if !ok {
+			t.Errorf("README: code %s (status %d) is not in the table of errors", c.code, c.status)
+		} else if !strings.Contains(statuses, strconv.Itoa(c.status)) {
+			t.Errorf("README: code %s is listed under %s, errorTable answers it with %d", c.code, statuses, c.status)
+		}
+	}
+	for code := range listed {
+		if !want[code] {
+			t.Errorf("README lists code %s, which errorTable does not have", code)
+		}
 	}
 }

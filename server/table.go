@@ -2,7 +2,6 @@ package server
 
 import (
 	"bytes"
-	"errors"
 	"net/http"
 	"net/url"
 	"strings"
@@ -22,7 +21,7 @@ import (
 func (s *Server) getTable(c *gin.Context) {
 	spec, format, rest, err := readTableQuery(c.Request.URL.RawQuery)
 	if err != nil {
-		s.fail(c, tableProblem(err))
+		s.fail(c, err)
 		return
 	}
 	req, err := s.readRequest(rest, takesGet)
@@ -33,7 +32,7 @@ func (s *Server) getTable(c *gin.Context) {
 	spec.Get = req.syms
 	t, err := table.Build(spec, req.opt)
 	if err != nil {
-		s.fail(c, tableProblem(err))
+		s.fail(c, err)
 		return
 	}
 	var b bytes.Buffer
@@ -85,14 +84,4 @@ func readTableQuery(raw string) (table.Spec, string, string, error) {
 		}
 	}
 	return spec, format, strings.Join(rest, "&"), nil
-}
-
-// tableProblem gives the table's own error kinds the status of a
-// malformed query (400).
-func tableProblem(err error) error {
-	var te *table.Error
-	if errors.As(err, &te) {
-		return errorf(ErrBadQuery, te.Param, "%s", te.Msg)
-	}
-	return err
 }

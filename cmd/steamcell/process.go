@@ -74,7 +74,9 @@ Kinds:
 			if err != nil {
 				var pe *point.Error
 				var ue *units.InputError
-				if errors.As(err, &pe) || errors.As(err, &ue) || errors.Is(err, process.ErrInput) {
+				// A refusal is the command's answer (exit 1); a point or a
+				// process input that cannot be read is a usage error.
+				if !errors.Is(err, process.ErrRefused) && (errors.As(err, &pe) || errors.As(err, &ue) || errors.Is(err, process.ErrInput)) {
 					return usageError{err}
 				}
 				return err

@@ -1,6 +1,10 @@
 package diagram
 
-import "errors"
+import (
+	"errors"
+
+	"steamcell/fn"
+)
 
 // Kinds of diagram error besides ErrUnknownKind (and the errors of
 // fn/point and fn/units, passed on for the user's points).
@@ -15,15 +19,6 @@ var (
 	ErrBadRange = errors.New("bad axis range")
 )
 
-// Error is a problem with what a diagram was asked to show: which
-// parameter, what kind, and a message saying what to change.
-type Error struct {
-	Param string
-	Kind  error
-	Msg   string
-}
-
-func (e *Error) Error() string { return e.Msg }
-
-// Unwrap returns the kind.
-func (e *Error) Unwrap() error { return e.Kind }
+// Error is the problem with a request that the caller must change
+// (fn.ParamError: which parameter, what kind, what to change).
+type Error = fn.ParamError

@@ -33,18 +33,9 @@ var (
 	ErrMap = errors.New("bad column map")
 )
 
-// Error is a problem with a point as given: which parameter, what kind,
-// and a message saying what to change.
-type Error struct {
-	Param string // the input or property name concerned; may be empty
-	Kind  error
-	Msg   string
-}
-
-func (e *Error) Error() string { return e.Msg }
-
-// Unwrap returns the kind.
-func (e *Error) Unwrap() error { return e.Kind }
+// Error is the problem with a request that the caller must change
+// (fn.ParamError: which parameter, what kind, what to change).
+type Error = fn.ParamError
 
 // inputNames maps the names a user may give an input by (lower case) to the
 // quantity.

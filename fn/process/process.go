@@ -27,21 +27,12 @@ var (
 	ErrRefused = errors.New("process refused")
 )
 
-// Error is a process error: which input, what kind, and a message saying
-// what to change.
-type Error struct {
-	Param string
-	Kind  error
-	Msg   string
-}
-
-func (e *Error) Error() string { return e.Msg }
-
-// Unwrap returns the kind.
-func (e *Error) Unwrap() error { return e.Kind }
+// Error is the problem with a request that the caller must change
+// (fn.ParamError: which parameter, what kind, what to change).
+type Error = fn.ParamError
 
 func errorf(kind error, param, format string, args ...any) *Error {
-	return &Error{Param: param, Kind: kind, Msg: fmt.Sprintf(format, args...)}
+	return fn.ParamErrorf(kind, param, format, args...)
 }
 
 // Value is one raw input: its name ("p1", "m2"), its value in base units

@@ -29,21 +29,12 @@ var (
 	ErrBadRange = errors.New("bad table range")
 )
 
-// Error is a problem with what a table was asked for: which parameter,
-// what kind, and a message saying what to change.
-type Error struct {
-	Param string
-	Kind  error
-	Msg   string
-}
-
-func (e *Error) Error() string { return e.Msg }
-
-// Unwrap returns the kind.
-func (e *Error) Unwrap() error { return e.Kind }
+// Error is the problem with a request that the caller must change
+// (fn.ParamError: which parameter, what kind, what to change).
+type Error = fn.ParamError
 
 func errorf(kind error, param, format string, args ...any) *Error {
-	return &Error{Param: param, Kind: kind, Msg: fmt.Sprintf(format, args...)}
+	return fn.ParamErrorf(kind, param, format, args...)
 }
 
 // Spec is a table as asked for, every value as text with its unit (bare
