@@ -3,9 +3,11 @@ package server_test
 import (
 	"context"
 	"encoding/json"
+	"fmt"
 	"io"
 	"net"
 	"net/http"
+	"runtime"
 	"strings"
 	"sync"
 	"testing"
@@ -182,6 +184,15 @@ func TestGracefulShutdown(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	active := make(chan struct{}, 1)
+	hs.ConnState = func(_ net.Conn, st http.ConnState) {
+		if st == http.StateActive { // the server has read a request's first bytes
+			select {
+			case active <- struct{}{}:
+			default:
+			}
+		}
+	}
 	served := make(chan error, 1)
 	go func() { served <- hs.Serve(ln) }()
 
@@ -204,11 +215,13 @@ func TestGracefulShutdown(t *testing.T) {
 	if _, err := io.WriteString(pw, "p [bar],t [°C]\n1,20\n"); err != nil {
 		t.Fatal(err)
 	}
-	time.Sleep(50 * time.Millisecond) // the request is in the handler, receiving its body
+	<-active // the request is in the server, its body still coming
 
+	closed := make(chan struct{})
+	hs.RegisterOnShutdown(func() { close(closed) }) // run once the listeners are closed
 	shut := make(chan error, 1)
 	go func() { shut <- hs.Shutdown(context.Background()) }()
-	time.Sleep(50 * time.Millisecond)
+	<-closed
 	select {
 	case err := <-shut:
 		t.Fatalf("Shutdown returned (%v) with a request in progress", err)
@@ -290,12 +303,26 @@ func TestWorkbookOneAtATime(t *testing.T) {
 	for i := range codes {
 		wg.Go(func() { codes[i] = send(srv, http.MethodPost, "/workbook", "PK", nil).Code })
 	}
+	waitInFlight(t, srv, len(codes)) // all three are in the server before the first is let go
 	for range codes {
-		time.Sleep(20 * time.Millisecond)
 		f.hold <- struct{}{}
 	}
 	wg.Wait()
 	if f.most != 1 || codes[0] != 200 || codes[1] != 200 || codes[2] != 200 {
 		t.Errorf("fills at once: %d (want 1), statuses %v", f.most, codes)
 	}
+}
+
+// waitInFlight waits until the server reports n requests in flight besides
+// the /metrics request that asks (its gauge steamcell_http_requests_in_flight).
+func waitInFlight(t *testing.T, srv http.Handler, n int) {
+	t.Helper()
+	want := fmt.Sprintf("steamcell_http_requests_in_flight %d\n", n+1)
+	for range 100000 {
+		if strings.Contains(get(srv, "/metrics").Body.String(), want) {
+			return
+		}
+		runtime.Gosched()
+	}
+	t.Fatalf("the server never had %d requests in flight", n)
 }

@@ -26,14 +26,28 @@ import (
 
 // lockedBuffer is a buffer the server's goroutines and the test share.
 type lockedBuffer struct {
-	mu sync.Mutex
-	b  bytes.Buffer
+	mu    sync.Mutex
+	b     bytes.Buffer
+	wrote chan struct{} // has a value after a write, for waitURL; made on first use
 }
 
 func (l *lockedBuffer) Write(p []byte) (int, error) {
 	l.mu.Lock()
 	defer l.mu.Unlock()
-	return l.b.Write(p)
+	n, err := l.b.Write(p)
+	select {
+	case l.signal() <- struct{}{}:
+	default: // a write is already signalled
+	}
+	return n, err
+}
+
+// signal is the channel a write signals on (l.mu held).
+func (l *lockedBuffer) signal() chan struct{} {
+	if l.wrote == nil {
+		l.wrote = make(chan struct{}, 1)
+	}
+	return l.wrote
 }
 
 func (l *lockedBuffer) String() string {
@@ -44,17 +58,25 @@ func (l *lockedBuffer) String() string {
 
 var listening = regexp.MustCompile(`listening on (http://\S+)`)
 
-// waitURL waits for the server's "listening on" line in out.
+// waitURL waits for the server's "listening on" line in out, woken by
+// each write to out, for at most 10 s.
 func waitURL(t *testing.T, out *lockedBuffer) string {
 	t.Helper()
-	for range 500 {
+	out.mu.Lock()
+	wrote := out.signal()
+	out.mu.Unlock()
+	deadline := time.After(10 * time.Second)
+	for {
 		if m := listening.FindStringSubmatch(out.String()); m != nil {
 			return m[1]
 		}
-		time.Sleep(10 * time.Millisecond)
+		select {
+		case <-wrote:
+		case <-deadline:
+			t.Fatalf("the server did not start: %q", out.String())
+			return ""
+		}
 	}
-	t.Fatalf("the server did not start: %q", out.String())
-	return ""
 }
 
 func fetch(t *testing.T, url string, header map[string]string) (int, string) {
