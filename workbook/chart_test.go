@@ -226,6 +226,9 @@ func TestChartDemo(t *testing.T) {
 	if got := f.GetSheetList(); got[len(got)-1] != sum.Chart {
 		t.Errorf("sheets %q, want the chart sheet last", got)
 	}
+	if want := "\nChart | Enthalpy–entropy of the filled points and the saturation line, on sheet \"steamcell chart\"\n"; !strings.Contains(summaryText(t, f, sum.SummarySheet), want) {
+		t.Errorf("the summary sheet has no row %q", want)
+	}
 
 	doc, drawing, chart := chartOf(t, out.Bytes(), sum.Chart)
 	zin, err := zip.NewReader(bytes.NewReader(in), int64(len(in)))
