@@ -92,7 +92,7 @@ func (r *run) planChart() bool {
 			}
 			why := ""
 			switch rows := s.lastPoint - s.firstPoint + 1; {
-			case p.OK+p.Flagged == 0:
+			case s.pairCounts[i][0]+s.pairCounts[i][1] == 0: // ok and flagged, counted to the last row calculated
 				why = "not in the chart: no point solved"
 			case rows > maxChartRows:
 				why = fmt.Sprintf("not in the chart: %d rows, more than the %d a chart series spans", rows, maxChartRows)
@@ -101,7 +101,7 @@ func (r *run) planChart() bool {
 				if p.Label != "" {
 					why = p.Label + " " + why
 				}
-				s.ss.Note = joinNote(s.ss.Note, why)
+				r.noteSheet(s.name, why)
 				continue
 			}
 			c.series = append(c.series, chartSeries{name: name, sheet: s.name,
@@ -110,10 +110,20 @@ func (r *run) planChart() bool {
 		}
 	}
 	if len(c.series) == 0 {
-		r.sum.Notes = append(r.sum.Notes, "no chart: no sheet has a solved point")
+		r.sum.Notes = append(r.sum.Notes, "no chart: no sheet has points it can show; the notes of the sheets say why")
 		return false
 	}
 	return true
+}
+
+// noteSheet adds a note to the summary of a sheet (the summary holds a
+// copy of the sheet's, made after its first pass).
+func (r *run) noteSheet(name, note string) {
+	for i := range r.sum.Sheets {
+		if r.sum.Sheets[i].Name == name {
+			r.sum.Sheets[i].Note = joinNote(r.sum.Sheets[i].Note, note)
+		}
+	}
 }
 
 // output returns the result of property sym, or nil.

@@ -337,13 +337,16 @@ func sheetHeader(t *testing.T, sum workbook.Summary, sheet string) int {
 
 // TestChartTS: results with T and s but no h give a T–s chart, in the
 // units of the set (here °F and Btu/(lb·°R)), whose saturation line lies
-// on the saturation states.
+// on the saturation states; a sheet name with a quote and an ampersand is
+// quoted in the references and escaped in the XML.
 func TestChartTS(t *testing.T) {
-	data := save(t, sheetOf(t,
+	book := sheetOf(t,
 		[]any{"Point", "Header pressure [barg]", "Header temperature [°C]"}, // invented Kestrel Bay readings
 		[]any{"H1", 9.8, 212.0},
 		[]any{"H2", 10.1, 214.5},
-	))
+	)
+	mustf(t, book.SetSheetName("Data", "Bay's header & mains"), "rename")
+	data := save(t, book)
 	o := opts()
 	o.Add = []string{"t", "s"}
 	us, err := units.SetByName("us")
@@ -354,8 +357,8 @@ func TestChartTS(t *testing.T) {
 	mustf(t, err, "fill")
 	doc, _, _ := chartOf(t, out.Bytes(), sum.Chart)
 	ser := doc.Scatter[0].Series
-	if len(ser) != 2 || ser[1].X != "'Data'!$F$2:$F$3" || ser[1].Y != "'Data'!$E$2:$E$3" {
-		t.Fatalf("series %+v, want the saturation line and Data s in F, T in E over rows 2 to 3", ser)
+	if len(ser) != 2 || ser[1].X != "'Bay''s header & mains'!$F$2:$F$3" || ser[1].Y != "'Bay''s header & mains'!$E$2:$E$3" {
+		t.Fatalf("series %+v, want the saturation line and the sheet's s in F, T in E over rows 2 to 3", ser)
 	}
 	titles := ""
 	for _, a := range doc.Axes {
@@ -433,5 +436,61 @@ func TestChartRefill(t *testing.T) {
 	want := "'Boiler 2 acceptance'!$" + sum.Sheets[0].Pairs[0].Outputs[2].Letter + "$5:$"
 	if !strings.HasPrefix(got.X, want) || got.X == demoSeries[0].x {
 		t.Errorf("second chart's first series x %s, want the new s column (%s…)", got.X, want)
+	}
+}
+
+// TestChartRows: a sheet of more rows than a chart series spans gets no
+// series, and its note says so; with no other sheet there is no chart.
+func TestChartRows(t *testing.T) {
+	var in bytes.Buffer
+	const rows = 32001 // one more than the chart's limit of 32,000 rows a series
+	err := workbook.WriteSheetPackage(&in, "Log", func(add func(int, []any) error) error {
+		if err := add(1, []any{"p [bar]", "T [°C]"}); err != nil {
+			return err
+		}
+		for i := range rows {
+			if err := add(i+2, []any{10.0, 200.0 + float64(i%100)}); err != nil { // invented superheated readings
+				return err
+			}
+		}
+		return nil
+	})
+	mustf(t, err, "build the workbook")
+	var out bytes.Buffer
+	sum, err := workbook.Fill(context.Background(), bytes.NewReader(in.Bytes()), "log.xlsx", opts(), &out)
+	mustf(t, err, "fill")
+	if sum.Chart != "" {
+		t.Errorf("chart on %q, want none", sum.Chart)
+	}
+	if note := sum.Sheets[0].Note; !strings.Contains(note, "not in the chart: 32001 rows, more than the 32000 a chart series spans") {
+		t.Errorf("note of the sheet %q, want it to say why it is not in the chart", note)
+	}
+	if !strings.Contains(strings.Join(sum.Notes, "\n"), "no chart: no sheet has points it can show") {
+		t.Errorf("notes %q, want one saying why there is no chart", sum.Notes)
+	}
+}
+
+// TestChartFailedSheet: a sheet without a solved point has no series, and
+// its note says so; the other sheets are charted.
+func TestChartFailedSheet(t *testing.T) {
+	book := sheetOf(t,
+		[]any{"Point", "Drum pressure [barg]", "Steam temperature [°C]"}, // invented Kestrel Bay readings
+		[]any{"K1", 41.37, 415.7},
+	)
+	_, err := book.NewSheet("Faulty")
+	mustf(t, err, "new sheet")
+	for i, r := range [][]any{{"Point", "Drum pressure [barg]", "Steam temperature [°C]"}, {"F1", 41.2, "TC fault"}} {
+		cell, _ := excelize.CoordinatesToCellName(1, i+1)
+		mustf(t, book.SetSheetRow("Faulty", cell, &r), "write Faulty")
+	}
+	var out bytes.Buffer
+	sum, err := workbook.Fill(context.Background(), bytes.NewReader(save(t, book)), "two.xlsx", opts(), &out)
+	mustf(t, err, "fill")
+	doc, _, _ := chartOf(t, out.Bytes(), sum.Chart)
+	if ser := doc.Scatter[0].Series; len(ser) != 2 || !strings.HasPrefix(ser[1].X, "'Data'!") {
+		t.Errorf("series %q, want the saturation line and Data's points", ser)
+	}
+	if note := sum.Sheets[1].Note; sum.Sheets[1].Name != "Faulty" || !strings.Contains(note, "not in the chart: no point solved") {
+		t.Errorf("sheet %q note %q, want it to say it is not in the chart", sum.Sheets[1].Name, note)
 	}
 }
