@@ -81,7 +81,7 @@ func (r *run) planChart() bool {
 		}
 	}
 	if c.x == nil {
-		r.sum.Notes = append(r.sum.Notes, "no chart: it plots h against s, or T against s, and the results have not both; add them (--add h,s)")
+		r.sum.Notes = append(r.sum.Notes, "no chart: it plots h against s, or T against s, and the results have neither pair; add them (--add h,s)")
 		return false
 	}
 	for _, s := range r.sheets {
