@@ -63,14 +63,26 @@
 // Input cells holding formulas are read through their stored results;
 // where a formula has none, excelize calculates it. The status says so.
 //
+// # The chart
+//
+// A sheet of the fill's own, "steamcell chart", holds a native scatter
+// chart of the filled points with the saturation line (chart.go): h–s
+// when the results have h and s, else T–s when they have T and s. Each
+// pair of each filled sheet is a series referencing its result columns
+// over the rows of its test points, so the chart follows edits there; the
+// saturation line stands in cells of the chart sheet, in the unit set of
+// the results. Without s (or without h and T) there is no chart, and
+// Summary.Notes says why.
+//
 // # Keeping the data safe
 //
 // The input is only read. The output is the input's package: every part is
 // copied with its compressed bytes unchanged, except the filled sheets
 // (streamed, cells appended to rows), their rels and notes (extended in
 // place, or new), the styles (formats appended), the workbook part, its
-// rels and the content types (the summary sheet added), and the summary
-// sheet itself. Every copied part is read to its end first, so a package
+// rels and the content types (the summary and chart sheets added), and
+// the new parts: the summary sheet, the chart sheet with its drawing and
+// chart. No drawing of the user's sheets is extended or renumbered. Every copied part is read to its end first, so a package
 // whose entries lie about their sizes is refused as damaged. FillFile
 // writes a new file: it refuses an output that is the input or that exists
 // (unless Options.Force), writes to a temporary file in the output folder,

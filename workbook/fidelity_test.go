@@ -15,6 +15,7 @@ import (
 	"path"
 	"path/filepath"
 	"regexp"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -95,14 +96,17 @@ func TestFidelityCorpus(t *testing.T) {
 	dir := t.TempDir()
 	var outs []string
 	cases := corpus()
+	charts := map[string][]chartSer{} // the series of each output's chart, by case
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
 			in := c.build(t)
 			var out bytes.Buffer
-			if _, err := workbook.Fill(context.Background(), bytes.NewReader(in), c.name, opts(), &out); err != nil {
+			sum, err := workbook.Fill(context.Background(), bytes.NewReader(in), c.name, opts(), &out)
+			if err != nil {
 				t.Fatalf("fill (%s): %v", c.why, err)
 			}
-			comparePackages(t, in, out.Bytes())
+			comparePackages(t, in, out.Bytes(), "Readings")
+			charts[c.name] = checkChartParts(t, in, out.Bytes(), sum)
 			if c.check != nil {
 				c.check(t, in, out.Bytes())
 			}
@@ -131,8 +135,73 @@ func TestFidelityCorpus(t *testing.T) {
 			}
 			defer f.Close()
 			checkReadBack(t, f)
+			converted, err := os.ReadFile(filepath.Join(conv, base))
+			mustf(t, err, "read the conversion")
+			doc, _, _ := chartOf(t, converted, "steamcell chart")
+			if got, want := doc.Scatter[0].Series, charts[c.name]; !slices.Equal(parseSeries(t, got), parseSeries(t, want)) {
+				t.Errorf("LibreOffice's chart has the series %q, want %q", got, want)
+			}
 		})
 	}
+}
+
+// checkChartParts checks the chart of a filled corpus workbook: its
+// drawing and chart are parts the input does not have, only the chart
+// sheet uses that drawing, no sheet of the input has a drawing it did not
+// have, and the series of the readings are their s and h columns. It
+// returns the chart's series.
+func checkChartParts(t *testing.T, in, out []byte, sum workbook.Summary) []chartSer {
+	t.Helper()
+	if sum.Chart == "" {
+		t.Fatalf("no chart (notes %q)", sum.Notes)
+	}
+	doc, drawing, chartPart := chartOf(t, out, sum.Chart)
+	zin, err := zip.NewReader(bytes.NewReader(in), int64(len(in)))
+	mustf(t, err, "read the input")
+	zout, err := zip.NewReader(bytes.NewReader(out), int64(len(out)))
+	mustf(t, err, "read the output")
+	drawingsOf := func(zr *zip.Reader) map[string][]string { // drawing part → the rels parts that use it
+		users := map[string][]string{}
+		for _, f := range zr.File {
+			if !strings.HasPrefix(f.Name, "xl/worksheets/_rels/") {
+				continue
+			}
+			for _, target := range parseRelsOf(t, zr, f.Name) {
+				if p := path.Clean(path.Join("xl/worksheets", target)); strings.HasPrefix(p, "xl/drawings/drawing") {
+					users[p] = append(users[p], f.Name)
+				}
+			}
+		}
+		return users
+	}
+	before, after := drawingsOf(zin), drawingsOf(zout)
+	for _, f := range zin.File {
+		if strings.EqualFold(f.Name, drawing) || strings.EqualFold(f.Name, chartPart) {
+			t.Errorf("the chart's part %s is a part of the input", f.Name)
+		}
+	}
+	if u := after[drawing]; len(u) != 1 {
+		t.Errorf("the chart's drawing %s is used by %q, want the chart sheet alone", drawing, u)
+	}
+	for p, u := range after {
+		if p != drawing && !slices.Equal(u, before[p]) {
+			t.Errorf("drawing %s is used by %q, in the input by %q", p, u, before[p])
+		}
+	}
+	letter := map[string]string{}
+	for _, sh := range sum.Sheets {
+		if sh.Name == "Readings" && sh.Filled {
+			for _, c := range sh.Pairs[0].Outputs {
+				letter[c.Symbol] = c.Letter
+			}
+		}
+	}
+	ser := doc.Scatter[0].Series
+	x, y := "'Readings'!$"+letter["s"]+"$2:$"+letter["s"]+"$4", "'Readings'!$"+letter["h"]+"$2:$"+letter["h"]+"$4"
+	if len(ser) != 2 || ser[1].X != x || ser[1].Y != y {
+		t.Errorf("chart series %q, want the saturation line and Readings x %s, y %s", ser, x, y)
+	}
+	return ser
 }
 
 // checkReadBack finds the results on the readings sheet of a workbook
@@ -184,8 +253,8 @@ var mayChange = map[string]bool{"count": true, "dimension.ref": true, "row.spans
 
 // ownedParts are the parts a fill may rewrite: the package's content
 // types, the workbook part and its rels, the styles, and for each filled
-// sheet its part, its rels and its note parts.
-func ownedParts(t *testing.T, out *zip.Reader) map[string]bool {
+// sheet (named in filled) its part, its rels and its note parts.
+func ownedParts(t *testing.T, out *zip.Reader, filled []string) map[string]bool {
 	t.Helper()
 	owned := map[string]bool{"[Content_Types].xml": true, "xl/workbook.xml": true, "xl/_rels/workbook.xml.rels": true, "xl/styles.xml": true}
 	f, err := excelize.OpenReader(readerOf(out))
@@ -194,8 +263,7 @@ func ownedParts(t *testing.T, out *zip.Reader) map[string]bool {
 	rels := parseRelsOf(t, out, "xl/_rels/workbook.xml.rels")
 	wb := partBytes(t, out, "xl/workbook.xml")
 	for _, m := range regexp.MustCompile(`<sheet [^>]*name="([^"]+)"[^>]*r:id="([^"]+)"`).FindAllSubmatch(wb, -1) {
-		name := string(m[1])
-		if name != "Readings" {
+		if !slices.Contains(filled, string(m[1])) {
 			continue
 		}
 		part := path.Join("xl", rels[string(m[2])])
@@ -246,15 +314,15 @@ func partBytes(t *testing.T, zr *zip.Reader, name string) []byte {
 	return nil
 }
 
-// comparePackages checks the parts of in against out: see the comment at
-// the top.
-func comparePackages(t *testing.T, in, out []byte) {
+// comparePackages checks the parts of in against out, of which the
+// sheets filled are named: see the comment at the top.
+func comparePackages(t *testing.T, in, out []byte, filled ...string) {
 	t.Helper()
 	zin, err := zip.NewReader(bytes.NewReader(in), int64(len(in)))
 	mustf(t, err, "read the input package")
 	zout, err := zip.NewReader(bytes.NewReader(out), int64(len(out)))
 	mustf(t, err, "read the output package")
-	owned := ownedParts(t, zout)
+	owned := ownedParts(t, zout, filled)
 	byName := map[string]*zip.File{}
 	for _, f := range zout.File {
 		byName[f.Name] = f

@@ -269,6 +269,7 @@ type run struct {
 	rewritten   map[string][]byte // by lower-case part name
 	streamed    map[string]*sheetRun
 	summaryPart string
+	chart       chartPlan
 }
 
 // newPart is a part the fill adds.
@@ -465,7 +466,7 @@ func (r *run) fill(ctx context.Context) error {
 		}
 		ss := SheetSummary{Name: e.Name}
 		if r.opt.Sheet == "" {
-			if isSummarySheet(e.Name) || e.part == "" {
+			if isOwnSheet(e.Name) || e.part == "" {
 				continue
 			}
 			if e.State == "hidden" || e.State == "veryHidden" {

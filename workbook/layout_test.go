@@ -29,8 +29,8 @@ func TestCSV(t *testing.T) {
 		"\r\n" +
 		"P3;;410;no gauge\r\n"
 	f, sum := fillBytes(t, []byte(csv), "log.csv", opts())
-	if got := f.GetSheetList(); len(got) != 2 || got[0] != "log" {
-		t.Fatalf("sheets %q, want log and the summary", got)
+	if got := f.GetSheetList(); len(got) != 3 || got[0] != "log" || got[2] != sum.Chart {
+		t.Fatalf("sheets %q, want log, the summary and the chart", got)
 	}
 	if n := verifySheet(t, f, "log", 2, 5, [2]in{{"B", fn.Pressure, "psig"}, {"C", fn.Temperature, "°F"}}, outCols{"E", "F", "G", "H", "I", "J"}); n != 2 {
 		t.Errorf("%d rows verified, want 2", n)
@@ -121,8 +121,9 @@ func TestFillTwice(t *testing.T) {
 			t.Errorf("%s = %q, want %q", cell, got, want)
 		}
 	}
-	if got := twice.GetSheetList(); len(got) != 3 || got[2] != "steamcell summary 2" {
-		t.Errorf("sheets %q, want a second summary", got)
+	// The second fill writes no s, so it adds no chart.
+	if got := twice.GetSheetList(); len(got) != 4 || got[3] != "steamcell summary 2" || sum.Chart != "" {
+		t.Errorf("sheets %q (chart %q), want a second summary and no second chart", got, sum.Chart)
 	}
 	// A third fill still finds the same inputs: columns right of a status
 	// column are never inputs.

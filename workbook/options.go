@@ -81,6 +81,7 @@ const MaxListed = 1000
 type Summary struct {
 	Sheets       []SheetSummary
 	SummarySheet string // name of the summary sheet added
+	Chart        string // name of the sheet with the chart of the points; "" when there is none (Notes say why)
 	Rows         int    // data rows with at least one input, all sheets
 	OK           int    // rows whose every point is ok
 	Flagged      int    // rows solved with a "check:" status, none failed

@@ -328,12 +328,15 @@ func (p *pkg) names() *names {
 	return n
 }
 
-// part returns dir/stem{N}ext for the smallest N ≥ 1 not taken.
+// part returns dir/stem{N}ext for the smallest N ≥ 1 not taken, whose
+// rels part is not taken either (a stray rels part would otherwise be
+// written twice, or given to a new part that has rels of its own).
 func (n *names) part(dir, stem, ext string) string {
 	for i := 1; ; i++ {
 		name := dir + stem + strconv.Itoa(i) + ext
-		if !n.taken[strings.ToLower(name)] {
-			n.taken[strings.ToLower(name)] = true
+		key, rels := strings.ToLower(name), strings.ToLower(relsPath(name))
+		if !n.taken[key] && !n.taken[rels] {
+			n.taken[key], n.taken[rels] = true, true
 			return name
 		}
 	}

@@ -88,7 +88,7 @@ func TestPreserve(t *testing.T) {
 	defer before.Close()
 	after, sum := fillBytes(t, data, "rich.xlsx", opts())
 
-	wantSheets := append(before.GetSheetList(), "steamcell summary")
+	wantSheets := append(before.GetSheetList(), "steamcell summary", "steamcell chart")
 	if got := after.GetSheetList(); !reflect.DeepEqual(got, wantSheets) {
 		t.Fatalf("sheets %q, want %q", got, wantSheets)
 	}

@@ -39,6 +39,8 @@ type sheetRun struct {
 	colsMax    int // one past the last hidden or styled column
 	mergedMax  int // one past the last column of a merged range
 	lastRow    int // last data row
+	firstPoint int // first row of a test point (not an aggregate row); 0 when none
+	lastPoint  int // last row of a test point
 	maxRow     int // last row of the sheet
 	minCol     int // first column of the dimension (0-based)
 	minRow     int // first row of the dimension; 0 when it names none
@@ -520,6 +522,12 @@ func (s *sheetRun) analyse(dr *dataRow) {
 	vals := make([]any, s.nOut)
 	res := s.solveRow(dr, vals)
 	s.lastRow = max(s.lastRow, dr.row)
+	if dr.aggregate == "" { // rows with formulas to calculate come later, out of order
+		if s.firstPoint == 0 || dr.row < s.firstPoint {
+			s.firstPoint = dr.row
+		}
+		s.lastPoint = max(s.lastPoint, dr.row)
+	}
 	s.count(s.ss, dr, &res, vals)
 	for i, v := range vals {
 		if w := s.cellWidth(i, v); w > s.widths[i] {

@@ -3,6 +3,7 @@ package workbook
 import (
 	"bytes"
 	"fmt"
+	"strconv"
 	"strings"
 
 	"steamcell/fn/point"
@@ -25,8 +26,11 @@ const Formulation = point.Formulation + " (IAPWS R7-97(2012))"
 // "steamcell summary 2" and so on.
 const summaryName = "steamcell summary"
 
-func isSummarySheet(name string) bool {
-	return strings.HasPrefix(strings.ToLower(name), summaryName)
+// isOwnSheet reports whether a sheet is one a fill added (its summary or
+// its chart), which a later fill of every sheet leaves alone.
+func isOwnSheet(name string) bool {
+	l := strings.ToLower(name)
+	return strings.HasPrefix(l, summaryName) || strings.HasPrefix(l, chartName)
 }
 
 // summaryXML is the summary sheet, a part of its own written here: text
@@ -69,6 +73,9 @@ func (r *run) summaryXML() []byte {
 	w.row(0, "  failed (no values)", r.sum.Failed)
 	w.row(0, "Blank rows skipped", r.sum.Blank)
 	w.row(0, "Aggregate rows (solved, not test points)", r.sum.Aggregate)
+	if r.sum.Chart != "" {
+		w.row(0, "Chart", fmt.Sprintf("%s of the filled points and the saturation line, on sheet %q", r.chart.kind.Title, r.sum.Chart))
+	}
 	for _, n := range r.sum.Notes {
 		w.row(0, "Note", n)
 	}
@@ -166,15 +173,16 @@ func describeInput(c Column) string {
 
 // summaryWriter collects the cells of the summary sheet, row under row.
 type summaryWriter struct {
-	st    *styleTable
-	n     int
-	cells []summaryCell
+	st      *styleTable
+	n       int
+	cells   []summaryCell
+	drawing string // the r:id of the sheet's drawing; "" for none
 }
 
 type summaryCell struct {
 	row, col int
 	text     string
-	num      int
+	num      float64
 	isNum    bool
 	style    int
 	link     string // a place in the workbook ('Sheet'!F6); "" for none
@@ -195,7 +203,7 @@ func (w *summaryWriter) row(style int, vals ...any) {
 		case string:
 			c.text = v
 		case int:
-			c.num, c.isNum = v, true
+			c.num, c.isNum = float64(v), true
 		}
 		w.cells = append(w.cells, c)
 	}
@@ -220,7 +228,7 @@ func (w *summaryWriter) xml(widths []float64) []byte {
 		}
 		ref := cellName(c.col, c.row)
 		if c.isNum {
-			fmt.Fprintf(&b, `<c r="%s" s="%d"><v>%d</v></c>`, ref, w.st.xf[styleText], c.num)
+			fmt.Fprintf(&b, `<c r="%s" s="%d"><v>%s</v></c>`, ref, c.style, strconv.FormatFloat(c.num, 'g', -1, 64))
 			continue
 		}
 		if c.text == "" {
@@ -245,6 +253,9 @@ func (w *summaryWriter) xml(widths []float64) []byte {
 	}
 	if !first {
 		b.WriteString(`</hyperlinks>`)
+	}
+	if w.drawing != "" {
+		fmt.Fprintf(&b, `<drawing r:id="%s"/>`, escapeAttr(w.drawing))
 	}
 	b.WriteString(`</worksheet>`)
 	return b.Bytes()

@@ -73,18 +73,28 @@ func (r *run) plan(ctx context.Context) error {
 		wbAdd = append(wbAdd, rel{ID: newRelID(p.wbRels, wbAdd), Type: relStyles, Target: relTarget(p.wbPart, part)})
 	}
 
+	charted := r.planChart()
+	if charted {
+		r.sum.Chart = r.freeSheetName(chartName)
+	}
 	r.summaryPart = n.part(path.Dir(p.wbPart)+"/worksheets/", "sheet", ".xml")
-	r.sum.SummarySheet = r.summarySheetName()
+	r.sum.SummarySheet = r.freeSheetName(summaryName)
 	r.put(r.summaryPart, false, ctWorksheet, r.summaryXML())
 	sheetRel := rel{ID: newRelID(p.wbRels, wbAdd), Type: relWorksheet, Target: relTarget(p.wbPart, r.summaryPart)}
 	wbAdd = append(wbAdd, sheetRel)
+	added := []newSheet{{r.sum.SummarySheet, sheetRel.ID}}
+	if charted {
+		chartRel := r.putChart(n, wbAdd)
+		wbAdd = append(wbAdd, chartRel)
+		added = append(added, newSheet{r.sum.Chart, chartRel.ID})
+	}
 	wbRels, err := addRels(p.relsXML, wbAdd)
 	if err != nil {
 		return damaged(p.base, fmt.Errorf("%s: %w", relsPath(p.wbPart), err))
 	}
 	r.put(relsPath(p.wbPart), p.relsXML != nil, "", wbRels)
 
-	wb, err := r.addSheetEntry(sheetRel.ID)
+	wb, err := r.addSheetEntries(added)
 	if err != nil {
 		return damaged(p.base, fmt.Errorf("%s: %w", p.wbPart, err))
 	}
@@ -121,23 +131,26 @@ func (r *run) put(name string, old bool, ctype string, data []byte) {
 	r.newParts = append(r.newParts, newPart{name: name, ctype: ctype, data: data})
 }
 
-// summarySheetName is the name of the summary sheet: "steamcell summary",
-// or "steamcell summary 2" and so on when a sheet has that name.
-func (r *run) summarySheetName() string {
+// freeSheetName is the name of a sheet the fill adds: base ("steamcell
+// summary"), or base with " 2" and so on when a sheet has that name.
+func (r *run) freeSheetName(base string) string {
 	taken := map[string]bool{}
 	for _, e := range r.pkg.sheets {
 		taken[strings.ToLower(e.Name)] = true
 	}
-	name := summaryName
+	name := base
 	for i := 2; taken[name]; i++ {
-		name = summaryName + " " + strconv.Itoa(i)
+		name = base + " " + strconv.Itoa(i)
 	}
 	return name
 }
 
-// addSheetEntry returns the workbook part with the summary sheet listed
-// last.
-func (r *run) addSheetEntry(rid string) ([]byte, error) {
+// newSheet is a sheet the fill adds: its name and the id of the
+// workbook's relationship to it.
+type newSheet struct{ name, rid string }
+
+// addSheetEntries returns the workbook part with the sheets listed last.
+func (r *run) addSheetEntries(sheets []newSheet) ([]byte, error) {
 	doc := r.pkg.wbXML
 	root, err := rootTag(doc)
 	if err != nil {
@@ -152,8 +165,11 @@ func (r *run) addSheetEntry(rid string) ([]byte, error) {
 	if rp == "" {
 		rp, decl = "r:", ` xmlns:r="`+nsRelationships+`"`
 	}
-	entry := fmt.Sprintf(`<%ssheet%s name="%s" sheetId="%d" %sid="%s"/>`, root.prefix(), decl, escapeAttr(r.sum.SummarySheet), id+1, rp, rid)
-	return insertBeforeEnd(doc, "sheets", []byte(entry))
+	var b bytes.Buffer
+	for i, s := range sheets {
+		fmt.Fprintf(&b, `<%ssheet%s name="%s" sheetId="%d" %sid="%s"/>`, root.prefix(), decl, escapeAttr(s.name), id+1+i, rp, s.rid)
+	}
+	return insertBeforeEnd(doc, "sheets", b.Bytes())
 }
 
 // contentTypes returns the content types with an override for each new
