@@ -376,6 +376,9 @@ type header struct {
 // cells as text) with the one table reader (point.ReadTable, through
 // findColumns), by opt.Map and opt.HeaderRow where given.
 func readHeader(sheet string, top [][]string, opt Options) (header, error) {
+	if opt.Process != "" && opt.Map == "" {
+		return processHeader(sheet, top, opt)
+	}
 	row, unitRow, pairs, err := findColumns(sheet, top, opt.Map, opt.HeaderRow, opt.Point.Set)
 	return header{row: row, unitRow: unitRow, pairs: pairs}, err
 }

@@ -522,10 +522,11 @@ func quoteList(list []string) string {
 // dataRow is a row below the header with at least one input.
 type dataRow struct {
 	row       int
-	vals      []string // the inputs, two per pair, trimmed
-	note      []byte   // per input: 0, formulaStored or formulaCalculated; nil when none
-	aggregate string   // "AVERAGE of C3:C20" when the inputs aggregate their columns
-	needsCalc bool     // a formula input has no stored result
+	vals      []string       // the inputs, two per pair, trimmed
+	note      []byte         // per input: 0, formulaStored or formulaCalculated; nil when none
+	aggregate string         // "AVERAGE of C3:C20" when the inputs aggregate their columns
+	needsCalc bool           // a formula input has no stored result
+	more      map[int]string // cells of the extra results' columns, by column
 }
 
 const (
@@ -812,12 +813,18 @@ func (s *sheetRun) outHeader(p pairSpec, o output) string {
 
 // outHeaderAt is the header of result column i.
 func (s *sheetRun) outHeaderAt(i int) string {
+	if h, ok := s.extraHeader(i); ok {
+		return h
+	}
 	width := 1 + len(s.outs)
 	return s.ss.Pairs[i/width].Outputs[i%width].Header
 }
 
 // outUnitAt is the unit of result column i, for a row of units.
 func (s *sheetRun) outUnitAt(i int) string {
+	if u, ok := s.extraUnit(i); ok {
+		return u
+	}
 	width := 1 + len(s.outs)
 	return s.ss.Pairs[i/width].Outputs[i%width].Unit
 }

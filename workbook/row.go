@@ -25,6 +25,7 @@ const (
 type rowResult struct {
 	outcome  []uint8 // per pair
 	comments []pendingComment
+	extra    map[int]uint8 // outcome of an extra status cell, by result column
 }
 
 // pendingComment is a comment to add: on cell, or on the status cell of
@@ -44,7 +45,15 @@ func (s *sheetRun) solveRow(dr *dataRow, out []any) rowResult {
 	width := 1 + len(s.outs)
 	for i := range s.pairs {
 		res.outcome[i] = s.solvePair(dr, i, out[i*width:(i+1)*width], &res)
+		if s.ext.states != nil {
+			s.ext.states[i] = nil
+			if res.outcome[i] == outcomeOK || res.outcome[i] == outcomeFlagged {
+				st := *s.ans.State()
+				s.ext.states[i] = &st
+			}
+		}
 	}
+	s.solveExtras(dr, out, &res)
 	return res
 }
 

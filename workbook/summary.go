@@ -97,6 +97,7 @@ func (r *run) summaryXML() []byte {
 	}
 	w.row(0, "Rule", `Input columns are found in the header row by their headers ("Drum pressure [barg]") and paired left to right (1st with 2nd, 3rd with 4th); a column map (--map) overrides.`)
 	w.skip()
+	r.resultsSummary(w, bold)
 
 	w.row(bold, "Points to look at", "Status cell", "Status")
 	if len(r.sum.Listed) == 0 {

@@ -17,6 +17,7 @@ import (
 	"golang.org/x/term"
 
 	"steamcell/fn/point"
+	"steamcell/fn/process"
 	"steamcell/fn/units"
 	"steamcell/workbook"
 )
@@ -25,17 +26,21 @@ func init() { verbs = append(verbs, (*App).fillCommand) }
 
 func (a *App) fillCommand() *cobra.Command {
 	var (
-		output     string
-		sheet      string
-		colMap     string
-		headerRow  int
-		add        string
-		unitSet    string
-		patmText   string
-		margin     float64
-		force      bool
-		unzipLimit int64
-		digits     string
+		output      string
+		sheet       string
+		colMap      string
+		headerRow   int
+		add         string
+		unitSet     string
+		patmText    string
+		margin      float64
+		force       bool
+		unzipLimit  int64
+		digits      string
+		uList       string
+		processKind string
+		check       string
+		checkTol    string
 	)
 	cmd := &cobra.Command{
 		Use:   "fill IN.xlsx",
@@ -95,6 +100,13 @@ T changes the phase.`,
 			if opt.Digits, err = parseDigits(digits); err != nil {
 				return usageError{err}
 			}
+			opt.U, opt.Process = uList, processKind
+			if check != "" {
+				opt.Check = strings.Split(check, ",")
+			}
+			if opt.CheckTol, err = workbook.ParseCheckTol(checkTol); err != nil {
+				return usageError{err}
+			}
 			if output == "" {
 				output = workbook.DefaultOutput(args[0])
 			}
@@ -135,6 +147,10 @@ T changes the phase.`,
 	f.Float64Var(&margin, "margin", workbook.DefaultMargin, "flag single-phase points this close to saturation, K; 0 turns the flag off")
 	f.BoolVar(&force, "force", false, "replace the output file if it exists")
 	f.Int64Var(&unzipLimit, "unzip-limit", workbook.DefaultUnzipSizeLimit>>20, "refuse an input that unpacks to more than this, MiB")
+	f.StringVar(&uList, "u", "", `uncertainty of whole input columns, e.g. "p=0.2bar,t=0.5K" (k = 1); a "u(p) [bar]" column gives it per row`)
+	f.StringVar(&processKind, "process", "", "add a process from the numbered inputs of each row (p1 t1 p2 t2 …): "+strings.Join(process.KindNames(), ", "))
+	f.StringVar(&check, "check", "", `compare the sheet's own columns of these properties with steamcell, e.g. "h,s"`)
+	f.StringVar(&checkTol, "check-tol", "", "relative tolerance of --check, e.g. 0.05% (default 0.1%)")
 	f.StringVar(&digits, "digits", "", `decimals shown for results: "3" for all, or "h=1,s=5" by property (the full value is stored)`)
 	return cmd
 }
