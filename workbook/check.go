@@ -293,7 +293,7 @@ func (r *run) resultsSummary(w *summaryWriter, bold int) {
 				if i == 0 {
 					rows, flagged = strconv.Itoa(c.Rows), strconv.Itoa(c.Flagged)
 				}
-				w.row(0, s.Name, col.Letter+" "+col.Header, rows, flagged, col.Largest, col.Unit, fmt.Sprintf("%+.4g %%", 100*col.LargestRel), col.LargestRow)
+				w.row(0, s.Name, col.Letter+" "+col.Header, rows, flagged, fmt.Sprintf("%+.6g", col.Largest), col.Unit, fmt.Sprintf("%+.4g %%", 100*col.LargestRel), col.LargestRow)
 			}
 		}
 		w.row(0, "Tolerance", fmt.Sprintf("%.3g %% of steamcell's value; deviations are the sheet's value minus steamcell's (IAPWS-IF97)", 100*r.checkTol()))

@@ -248,6 +248,15 @@ func writeFillReport(w io.Writer, output string, sum *workbook.Summary) error {
 		if s.Note != "" {
 			fmt.Fprintf(w, "  note: %s\n", s.Note)
 		}
+		if p := s.Process; p != nil {
+			fmt.Fprintf(w, "  %s: %d ok, %d flagged, %d failed\n", p.Kind, p.OK, p.Flagged, p.Failed)
+		}
+		if c := s.Check; c != nil {
+			fmt.Fprintf(w, "  check: %d rows compared, %d beyond %.3g %%\n", c.Rows, c.Flagged, 100*c.Tol)
+			for _, col := range c.Columns {
+				fmt.Fprintf(w, "    %s %q: largest deviation %+.6g %s (%+.3g %%) in row %d\n", col.Letter, col.Header, col.Largest, col.Unit, 100*col.LargestRel, col.LargestRow)
+			}
+		}
 	}
 	for _, n := range sum.Notes {
 		fmt.Fprintf(w, "note: %s\n", n)
