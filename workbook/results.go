@@ -111,8 +111,11 @@ func maskResultHeaders(top [][]string, opt Options) [][]string {
 		out[i] = row
 		for j, h := range row {
 			_, _, isU := uncertaintyName(h)
-			sym, _, isC := checkHeader(h, opt.Point.Set)
-			if !isU && !(isC && checks[sym]) {
+			if !isU && len(checks) > 0 {
+				sym, _, isC := checkHeader(h, opt.Point.Set)
+				isU = isC && checks[sym]
+			}
+			if !isU {
 				continue
 			}
 			if &out[i][0] == &row[0] {
@@ -137,6 +140,7 @@ func inputName(header string) string {
 // planExtras finds the sheet's extra columns from its header row (as
 // written, before masking) and adds them to the result columns.
 func (s *sheetRun) planExtras(header []string) error {
+	header = header[:statusCutoff(header)] // an earlier fill's results are no inputs
 	e := &s.ext
 	e.keep = map[int]bool{}
 	n := 2 * len(s.pairs)

@@ -292,3 +292,29 @@ func TestResultsFidelity(t *testing.T) {
 	}
 	comparePackages(t, in, out.Bytes())
 }
+
+// TestResultsRefill: a sheet filled with a process and uncertainties can
+// be filled again, the earlier results (their u(…) headers included) being
+// no inputs; a u column whose input has no column is refused.
+func TestResultsRefill(t *testing.T) {
+	data := readFile(t, filepath.Join("..", "testdata", "demo", "tg1_section_test.csv"))
+	opt := opts()
+	opt.Process = "expansion"
+	var once bytes.Buffer
+	if _, err := workbook.Fill(context.Background(), bytes.NewReader(data), "tg1.csv", opt, &once); err != nil {
+		t.Fatal(err)
+	}
+	f, sum := fillBytes(t, once.Bytes(), "tg1_filled.xlsx", opt)
+	letters := columnsOf(t, f, sum.Sheets[0].Name)
+	if p := sum.Sheets[0].Process; p == nil || p.OK != 4 || len(sum.Sheets[0].Pairs) != 2 {
+		t.Errorf("refill: process %+v, pairs %d", p, len(sum.Sheets[0].Pairs))
+	}
+	if letters["efficiency"] == "" {
+		t.Errorf("refill: no efficiency column")
+	}
+
+	bad := [][]any{{"p [bar]", "T [°C]", "u(h) [kJ/kg]"}, {40.0, 400.0, 1.0}}
+	if err := fillErr(t, save(t, sheetOf(t, bad...)), "bad.xlsx", opts()); !errors.Is(err, workbook.ErrAmbiguous) || !strings.Contains(err.Error(), "u(h)") {
+		t.Errorf("u(h) without an h column: %v, want ErrAmbiguous naming the column", err)
+	}
+}
