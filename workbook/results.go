@@ -365,6 +365,7 @@ func (s *sheetRun) solveExtras(dr *dataRow, pairOut []any, res *rowResult) {
 			}
 			pairOut[j*width] = st
 			res.outcome[j] = max(res.outcome[j], outcomeFlagged)
+			res.comments = append(res.comments, pendingComment{pair: j, row: dr.row, text: "steamcell: " + strings.Join(warnings, " ")})
 		}
 		unc[j] = m
 	}
@@ -438,6 +439,15 @@ func (s *sheetRun) givenOf(dr *dataRow, j int) ([]point.Given, bool) {
 		any = any || has
 	}
 	return g, any
+}
+
+// uncertainIn reports whether pair j of row dr has an uncertain input.
+func (s *sheetRun) uncertainIn(dr *dataRow, j int) bool {
+	if s.ext.uPairs == nil || !s.ext.uPairs[j] {
+		return false
+	}
+	_, any := s.givenOf(dr, j)
+	return any
 }
 
 // measured solves pair j of row dr with its uncertainties and returns the

@@ -318,3 +318,25 @@ func TestResultsRefill(t *testing.T) {
 		t.Errorf("u(h) without an h column: %v, want ErrAmbiguous naming the column", err)
 	}
 }
+
+// TestUncertaintyReplacesMargin: with uncertainties given, the k = 2
+// interval of the inputs decides whether the phase is in doubt, in place
+// of the fixed margin. At 10 bar, Ts = 453.035632 K = 179.885632 °C
+// (IAPWS R7-97(2012), Table 35), so 180.7 °C is 0.814 K above it: flagged
+// by the 1 K margin without u; ok with u(T) = 0.05 K (the interval reaches
+// 0.1 K); flagged as phase uncertain with u(T) = 1 K.
+func TestUncertaintyReplacesMargin(t *testing.T) {
+	rows := [][]any{
+		{"p [bar]", "T [°C]", "u(T) [K]"},
+		{10.0, 180.7, nil},
+		{10.0, 180.7, 0.05},
+		{10.0, 180.7, 1.0},
+	}
+	f, _ := fillBytes(t, save(t, sheetOf(t, rows...)), "margin.xlsx", opts())
+	for r, want := range map[int]string{2: "check: 0.81 K above saturation", 3: "ok", 4: "check: "} {
+		got := raw(t, f, "Data", "D"+strconv.Itoa(r))
+		if !strings.HasPrefix(got, want) || r == 4 && !strings.Contains(got, "phase") {
+			t.Errorf("row %d: status %q, want %q…", r, got, want)
+		}
+	}
+}
