@@ -60,10 +60,19 @@ left to right (steam p,T then feedwater p,T). When the columns are not clear,
 give them with --map "C=p:barg,D=t:C" (pairs separated by ';').
 
 Points within --margin of saturation are flagged: there a small error in p or
-T changes the phase.`,
+T changes the phase.
+
+A "u(p) [bar]" column beside "p [bar]", or --u p=0.2bar,t=0.5K for whole
+columns, gives inputs standard uncertainties, and the results their u(…).
+--process expansion (compression, throttling, mixing, exchanger) adds a process
+and its u from the numbered inputs of each row (p1, t1, p2, t2 …). --check h,s
+compares the sheet's own h and s columns with steamcell and flags rows beyond
+--check-tol (default 0.1 %).`,
 		Example: `  steamcell fill tests.xlsx
   steamcell fill tests.xlsx -o tests_out.xlsx --add h,s,v,x,cp,phase,region --units bar
-  steamcell fill log.csv --sheet log --map "B=p:psig,C=t:F" --units us`,
+  steamcell fill log.csv --sheet log --map "B=p:psig,C=t:F" --units us
+  steamcell fill tg1_section_test.csv --process expansion --u t=0.6K
+  steamcell fill old_record.xlsx --check h,s --check-tol 0.05%`,
 		Args: func(cmd *cobra.Command, args []string) error {
 			if len(args) != 1 {
 				return usageError{fmt.Errorf("fill needs one input workbook, got %d arguments", len(args))}
