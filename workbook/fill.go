@@ -609,6 +609,9 @@ func (s *sheetRun) lastHeaderRow() int { return max(s.headerRow, s.unitRow) }
 // again, as sheets laid out for printing repeat them; such a row is no
 // data.
 func (s *sheetRun) repeatsHeader(vals []string) bool {
+	if len(s.pairs) == 0 {
+		return false
+	}
 	idx := 0
 	for _, p := range s.pairs {
 		for _, c := range p.in {
@@ -866,6 +869,9 @@ func (s *sheetRun) count(ss *SheetSummary, dr *dataRow, res *rowResult, vals []a
 			worst = o
 		}
 	}
+	for _, o := range res.extra { // a process or check status
+		worst = max(worst, o)
+	}
 	if dr.aggregate != "" {
 		ss.Aggregate++
 	} else {
@@ -894,4 +900,5 @@ func (s *sheetRun) count(ss *SheetSummary, dr *dataRow, res *rowResult, vals []a
 		status, _ := vals[i*width].(string)
 		s.run.sum.Listed = append(s.run.sum.Listed, Listing{Sheet: s.name, Row: dr.row, pair: i, sheet: s, Status: status, Failed: o == outcomeFailed})
 	}
+	s.listExtras(dr, res, vals)
 }

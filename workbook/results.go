@@ -501,6 +501,13 @@ func (s *sheetRun) runProcess(dr *dataRow) (point.ProcessAnswer, error) {
 	return point.RunProcess(pp.kind.Name, given, s.opt.Point, point.UOptions{})
 }
 
+// isProcessInput reports whether column col holds a process input, which
+// makes a row a data row even where no state has both its inputs.
+func (s *sheetRun) isProcessInput(col int) bool {
+	pp := s.ext.proc
+	return pp != nil && col < len(pp.cols) && pp.cols[col].Input != "" && !pp.cols[col].Uncertainty
+}
+
 // extraHeader is the header of result column i when it is an extra one.
 func (s *sheetRun) extraHeader(i int) (string, bool) {
 	c, ok := s.extraAt(i)
@@ -577,6 +584,32 @@ func (s *sheetRun) countExtras(dr *dataRow, res *rowResult, vals []any) {
 		}
 	}
 	s.countChecks(dr, res, vals)
+}
+
+// listExtras lists the flagged and failed process and check statuses of a
+// row for the summary, as pair len(s.pairs)+i for result column i.
+func (s *sheetRun) listExtras(dr *dataRow, res *rowResult, vals []any) {
+	for i := s.ext.start; i < len(s.outs2); i++ {
+		o, ok := res.extra[i]
+		if !ok || o < outcomeFlagged {
+			continue
+		}
+		if len(s.run.sum.Listed) >= MaxListed {
+			s.run.sum.Unlisted++
+			continue
+		}
+		status, _ := vals[i].(string)
+		s.run.sum.Listed = append(s.run.sum.Listed, Listing{Sheet: s.name, Row: dr.row, pair: len(s.pairs) + i, sheet: s, Status: status, Failed: o == outcomeFailed})
+	}
+}
+
+// listedCell is the status cell of a listed point: pair's status, or for
+// pair len(s.pairs)+i, result column i.
+func (s *sheetRun) listedCell(pair, row int) string {
+	if pair >= len(s.pairs) {
+		return cellName(s.firstOut+pair-len(s.pairs), row)
+	}
+	return cellName(s.firstOut+pair*(1+len(s.outs)), row)
 }
 
 // addCode plans one more number format, before the styles are applied.

@@ -221,6 +221,11 @@ func TestCheckMode(t *testing.T) {
 	if h := c.Columns[0]; h.Symbol != "h" || h.LargestRow != 3 || math.Abs(h.Largest-2.5) > 5e-6 {
 		t.Errorf("largest deviation of h: %+v, want 2.5 in row 3", h)
 	}
+	// Flagged: row 3 by the check, and row 5 (R2-a, 300 K at 3.5 kPa) by
+	// the 1 K margin, 0.18 K above saturation.
+	if sum.Flagged != 2 || len(sum.Listed) != 2 || sum.Listed[0].Row != 3 || !strings.HasPrefix(sum.Listed[0].Status, "beyond 0.1 %: h +1.36 %") {
+		t.Errorf("summary: %d rows flagged, listed %+v; want rows 3 (its check status) and 5", sum.Flagged, sum.Listed)
+	}
 	text := summaryText(t, f, sum.SummarySheet)
 	for _, want := range []string{"Check against steamcell", "Rows beyond tolerance", "0.1 % of steamcell's value"} {
 		if !strings.Contains(text, want) {

@@ -479,6 +479,7 @@ func (s *sheetRun) dataRowOf(row int, cells []cellData) (dataRow, bool) {
 				dr.more = map[int]string{}
 			}
 			dr.more[c.col] = strings.TrimSpace(s.sst.value(&c))
+			any = any || dr.more[c.col] != "" && s.isProcessInput(c.col)
 		}
 		for j, p := range s.pairs {
 			for k, in := range p.in {

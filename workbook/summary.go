@@ -104,8 +104,7 @@ func (r *run) summaryXML() []byte {
 		w.row(0, "none: every point is ok")
 	}
 	for _, l := range r.sum.Listed {
-		width := 1 + len(r.outs)
-		cell := cellName(l.sheet.firstOut+l.pair*width, l.Row)
+		cell := l.sheet.listedCell(l.pair, l.Row)
 		style := r.styles.xf[styleCheck]
 		if l.Failed {
 			style = r.styles.xf[styleFailed]
