@@ -42,9 +42,9 @@ func columnsOf(t *testing.T, f *excelize.File, sheet string) map[string]string {
 // back to the same float64).
 func TestProcessDemo(t *testing.T) {
 	set, _ := units.SetByName("si")
-	for _, tc := range []struct{ file, kind string }{
-		{"tg1_section_test.csv", "expansion"},
-		{"fwh3_heater_test.csv", "exchanger"},
+	for _, tc := range []struct{ file, kind, result string }{
+		{"tg1_section_test.csv", "expansion", "efficiency"},
+		{"fwh3_heater_test.csv", "exchanger", "extraction"},
 	} {
 		path := filepath.Join("..", "testdata", "demo", tc.file)
 		data := readFile(t, path)
@@ -66,6 +66,27 @@ func TestProcessDemo(t *testing.T) {
 		letters := columnsOf(t, f, sheet)
 		if c := letters[tc.kind+" status (steamcell)"]; c == "" {
 			t.Fatalf("%s: no process status column; headers %v", tc.file, letters)
+		}
+		// The fill's own styles: a number format of its own on every
+		// result, a colour-coded status.
+		for _, h := range []string{tc.result, "u(" + tc.result + ")", "state 1 u(h) [kJ/kg]", tc.kind + " status (steamcell)"} {
+			cell := letters[h] + "2"
+			idx, err := f.GetCellStyle(sheet, cell)
+			if err != nil || idx == 0 {
+				t.Errorf("%s: %s (%s) has style %d (%v), want one of the fill's", tc.file, cell, h, idx, err)
+				continue
+			}
+			st, err := f.GetStyle(idx)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if strings.HasSuffix(h, "(steamcell)") {
+				if len(st.Fill.Color) == 0 {
+					t.Errorf("%s: status %s has no fill colour", tc.file, cell)
+				}
+			} else if st.CustomNumFmt == nil || !strings.HasPrefix(*st.CustomNumFmt, "0.0") {
+				t.Errorf("%s: %s (%s) has number format %v, want the fill's", tc.file, cell, h, st.CustomNumFmt)
+			}
 		}
 		compared := 0
 		for r, row := range rows[1:] {
