@@ -69,7 +69,8 @@
 // mode (Options.Process) the header row is read by
 // point.ProcessColumns: each state number with two inputs that fix it is
 // a pair, labelled "state N", and the process gets a status, its results
-// and their u. Check mode (Options.Check) compares a sheet's own columns of
+// and their u; a sheet without numbered headers gives its pairs, found as
+// for any fill, as states 1, 2, … in order. Check mode (Options.Check) compares a sheet's own columns of
 // those properties, which are then no inputs, with steamcell's values:
 // a deviation in the column's unit, a relative one and a status, flagged
 // beyond Options.CheckTol (DefaultCheckTol, 0.1 %), and the summary sheet

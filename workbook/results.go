@@ -73,6 +73,9 @@ type procPlan struct {
 	kind  process.Kind
 	cols  []point.ProcessColumn
 	units map[string]string // result → unit, from the first row solved
+	// fromPairs: the header names no numbered inputs, so pair j gives
+	// state j+1 ("Inlet pressure", "Extraction pressure": p1, p2).
+	fromPairs bool
 }
 
 // DefaultCheckTol is Options.CheckTol when it is 0: a relative deviation
@@ -259,12 +262,13 @@ func (s *sheetRun) planProcess(header []string) error {
 	if err != nil {
 		return &Error{Kind: ErrAmbiguous, Sheet: s.name, Msg: fmt.Sprintf("sheet %q, row %d: %v", s.name, s.headerRow, err)}
 	}
-	pp := &procPlan{kind: k, cols: cols, units: map[string]string{}}
+	pp := &procPlan{kind: k, cols: cols, units: map[string]string{}, fromPairs: true}
 	s.ext.proc = pp
 	s.ss.Process = &ProcessSummary{Kind: k.Name}
 	for i, c := range cols {
 		if c.Input != "" {
 			s.ext.keep[i] = true
+			pp.fromPairs = pp.fromPairs && c.Uncertainty
 		}
 	}
 	s.ext.cols = append(s.ext.cols, extraCol{kind: extraProcStatus, header: k.Name + " " + statusSuffix, out: output{sym: "status"}})
@@ -473,6 +477,20 @@ func (s *sheetRun) measured(dr *dataRow, j int) (map[string]float64, []string, e
 // "p1", or its symbol, "p").
 func (s *sheetRun) runProcess(dr *dataRow) (point.ProcessAnswer, error) {
 	pp := s.ext.proc
+	if pp.fromPairs {
+		var given []point.Given
+		for j := range s.pairs {
+			g, _ := s.givenOf(dr, j)
+			for k := range g {
+				if strings.TrimSpace(dr.vals[2*j+k]) == "" {
+					continue
+				}
+				g[k].Name += strconv.Itoa(j + 1)
+				given = append(given, g[k])
+			}
+		}
+		return point.RunProcess(pp.kind.Name, given, s.opt.Point, point.UOptions{})
+	}
 	list := map[string]string{}
 	if s.opt.U != "" {
 		list, _ = point.ParseUncertaintyList(s.opt.U) // checked in planExtras
@@ -505,7 +523,7 @@ func (s *sheetRun) runProcess(dr *dataRow) (point.ProcessAnswer, error) {
 // makes a row a data row even where no state has both its inputs.
 func (s *sheetRun) isProcessInput(col int) bool {
 	pp := s.ext.proc
-	return pp != nil && col < len(pp.cols) && pp.cols[col].Input != "" && !pp.cols[col].Uncertainty
+	return pp != nil && !pp.fromPairs && col < len(pp.cols) && pp.cols[col].Input != "" && !pp.cols[col].Uncertainty
 }
 
 // extraHeader is the header of result column i when it is an extra one.

@@ -366,3 +366,54 @@ func TestUncertaintyReplacesMargin(t *testing.T) {
 		}
 	}
 }
+
+// TestProcessFromPairs: on the demo workbook's TG-1 sheet, whose headers
+// are words ("Inlet pressure [bar]"), the inlet and extraction pairs are
+// states 1 and 2 of the expansion, the same as point.RunProcess with p1,
+// t1, p2, t2 and the uncertainties of Options.U; the mean row of formulas
+// is an aggregate, filled as well.
+func TestProcessFromPairs(t *testing.T) {
+	set, _ := units.SetByName("si")
+	opt := opts()
+	opt.Sheet, opt.Process, opt.U = "TG-1 stage check", "expansion", "p=0.1bar,t=0.6K"
+	f, sum := fillBytes(t, readFile(t, demoPath()), "kestrel_bay_tests.xlsx", opt)
+	const sheet = "TG-1 stage check"
+	if p := sum.Sheets[0].Process; p == nil || p.OK != 12 {
+		t.Fatalf("process summary %+v, want 12 rows ok", p)
+	}
+	rows, _ := f.GetRows(sheet)
+	hdr := 3 // the header row, under a title
+	col := map[string]string{}
+	for i, h := range rows[hdr-1] {
+		col[h], _ = excelize.ColumnNumberToName(i + 1)
+	}
+	compared := 0
+	for r := hdr + 1; r <= hdr+12; r++ {
+		row := strconv.Itoa(r)
+		var given []point.Given
+		for _, in := range []struct{ name, col, unit, u string }{
+			{"p1", "B", "bar", "0.1bar"}, {"t1", "C", "°C", "0.6K"}, {"p2", "D", "bar", "0.1bar"}, {"t2", "E", "°C", "0.6K"},
+		} {
+			given = append(given, point.WithUncertainty(point.Given{Name: in.name, Text: raw(t, f, sheet, in.col+row), Unit: in.unit}, in.u))
+		}
+		want, err := point.RunProcess("expansion", given, point.Options{Set: set}, point.UOptions{})
+		if err != nil {
+			t.Fatalf("row %d: %v", r, err)
+		}
+		for _, name := range []string{"efficiency", "work"} {
+			w, _ := want.Result(name)
+			for h, v := range map[string]float64{w.Name: w.Value, "u(" + w.Name + ")": w.U} {
+				if w.Unit != "" {
+					h += " [" + w.Unit + "]"
+				}
+				if got := num(t, f, sheet, col[h]+row); !scalar.EqualWithinAbsOrRel(got, v, 0, relTol) {
+					t.Errorf("row %d: %s = %.17g, RunProcess gives %.17g", r, h, got, v)
+				}
+				compared++
+			}
+		}
+	}
+	if compared != 48 {
+		t.Errorf("%d cells compared, want 48", compared)
+	}
+}

@@ -103,8 +103,8 @@ func TestReadmeFillResults(t *testing.T) {
 		f.Close()
 		ran++
 	}
-	if ran < 4 {
-		t.Errorf("ran %d README examples, want the 4 the section shows", ran)
+	if ran < 5 {
+		t.Errorf("ran %d README examples, want the 5 the section shows", ran)
 	}
 }
 
