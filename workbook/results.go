@@ -238,6 +238,9 @@ func (s *sheetRun) planExtras(header []string) error {
 			return err
 		}
 	}
+	if len(e.cols) == 0 {
+		e.states = nil // nothing reads the states of a row
+	}
 	e.start = s.nOut
 	s.nOut += len(e.cols)
 	for i := range e.cols {
