@@ -76,6 +76,7 @@ const (
 	takesFormat                    // format=json|csv
 	takesName                      // name= (file name of an upload)
 	takesGetList                   // get=, checked but passed on as given (the workbook filler expands it)
+	takesResults                   // u=, process=, check=, check_tol= of a workbook, passed on to the filler
 )
 
 // request is what a query asks for.
@@ -86,6 +87,9 @@ type request struct {
 	all    bool     // get= includes "all"
 	name   string   // from name=: a file name without directories
 	format string   // "json", "csv", or "" when format= is absent
+	// results are u=, process=, check= and check_tol= of a workbook, as
+	// given: the filler reads them.
+	results map[string]string
 }
 
 // readRequest reads the query of a route that takes the parameters t.
@@ -130,6 +134,14 @@ func (s *Server) readRequest(raw string, t takes) (request, error) {
 			}
 		case strings.HasPrefix(p.key, "unit_"):
 			overrides = append(overrides, p)
+		case t&takesResults != 0 && (p.key == "u" || p.key == "process" || p.key == "check" || p.key == "check_tol"):
+			if req.results == nil {
+				req.results = map[string]string{}
+			}
+			if _, dup := req.results[p.key]; dup {
+				return req, errorf(ErrRepeatedParameter, p.name, "%s is given twice; give it once", clean(p.name, 40))
+			}
+			req.results[p.key] = p.value
 		default:
 			if _, ok := point.InputQuantity(p.key); ok && t&takesInputs != 0 {
 				req.given = append(req.given, point.Given{Name: p.name, Text: p.value})
@@ -239,6 +251,9 @@ func (s *Server) unknownParam(p param, t takes) error {
 	}
 	if t&takesName != 0 {
 		known = append(known, "name")
+	}
+	if t&takesResults != 0 {
+		known = append(known, "u", "process", "check", "check_tol")
 	}
 	known = append(known, "units", "patm", "unit_SYMBOL", "key")
 	return errorf(ErrUnknownParameter, name, "%s is not a parameter of this route; parameters are %s", name, strings.Join(known, ", "))

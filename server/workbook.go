@@ -21,6 +21,10 @@ import (
 type WorkbookOptions struct {
 	Point   point.Options // unit set and atmospheric pressure
 	Symbols []string      // properties to add, from get=, as given (the filler checks them); nil: its default
+	// U, Process, Check and CheckTol are u=, process=, check= (a list)
+	// and check_tol= as given; the filler checks them.
+	U, Process, CheckTol string
+	Check                []string
 }
 
 // WorkbookFiller fills a workbook of test points with property, phase and
@@ -69,7 +73,7 @@ func (s *Server) postWorkbook(c *gin.Context) {
 		s.fail(c, errorf(ErrNotImplemented, "", "this server was started without the workbook filler; fill workbooks with the steamcell command, or send the rows to POST /batch"))
 		return
 	}
-	req, err := s.readRequest(c.Request.URL.RawQuery, takesGetList|takesName)
+	req, err := s.readRequest(c.Request.URL.RawQuery, takesGetList|takesName|takesResults)
 	if err != nil {
 		s.fail(c, err)
 		return
@@ -98,7 +102,7 @@ func (s *Server) postWorkbook(c *gin.Context) {
 		return
 	}
 	summary, err := s.cfg.Workbook.Fill(c.Request.Context(), in.reader(), name,
-		WorkbookOptions{Point: req.opt, Symbols: req.syms}, out)
+		workbookOptions(req), out)
 	if err == nil {
 		err = out.rewind()
 	}
@@ -141,4 +145,13 @@ func asciiJSON(b []byte) string {
 		}
 	}
 	return sb.String()
+}
+
+// workbookOptions are the choices of a /workbook request.
+func workbookOptions(req request) WorkbookOptions {
+	o := WorkbookOptions{Point: req.opt, Symbols: req.syms, U: req.results["u"], Process: req.results["process"], CheckTol: req.results["check_tol"]}
+	if c := req.results["check"]; c != "" {
+		o.Check = strings.Split(c, ",")
+	}
+	return o
 }

@@ -1,6 +1,7 @@
 package workbook
 
 import (
+	"errors"
 	"fmt"
 	"strconv"
 	"strings"
@@ -376,6 +377,13 @@ type header struct {
 // cells as text) with the one table reader (point.ReadTable, through
 // findColumns), by opt.Map and opt.HeaderRow where given.
 func readHeader(sheet string, top [][]string, opt Options) (header, error) {
+	if opt.Process != "" && opt.Map == "" {
+		if h, err := processHeader(sheet, top, opt); !errors.Is(err, ErrNoInputs) {
+			return h, err
+		}
+		// No numbered inputs: the pairs found as for any fill are the
+		// process's states 1, 2, … (results.go).
+	}
 	row, unitRow, pairs, err := findColumns(sheet, top, opt.Map, opt.HeaderRow, opt.Point.Set)
 	return header{row: row, unitRow: unitRow, pairs: pairs}, err
 }

@@ -60,6 +60,22 @@
 // status column lists all); the summary sheet lists the flagged and
 // failed points with links (at most MaxListed).
 //
+// # Uncertainties, processes and check mode
+//
+// Three options add columns right of the properties of every pair
+// (results.go, check.go). Options.U, or a "u(p) [bar]" column beside an
+// input, gives inputs standard uncertainties, and each uncertain pair gets
+// u(…) of every numeric property added (point.SolveMeasured). In process
+// mode (Options.Process) the header row is read by
+// point.ProcessColumns: each state number with two inputs that fix it is
+// a pair, labelled "state N", and the process gets a status, its results
+// and their u; a sheet without numbered headers gives its pairs, found as
+// for any fill, as states 1, 2, … in order. Check mode (Options.Check) compares a sheet's own columns of
+// those properties, which are then no inputs, with steamcell's values:
+// a deviation in the column's unit, a relative one and a status, flagged
+// beyond Options.CheckTol (DefaultCheckTol, 0.1 %), and the summary sheet
+// counts them and gives each column's largest deviation.
+//
 // Input cells holding formulas are read through their stored results;
 // where a formula has none, excelize calculates it. The status says so.
 //

@@ -523,10 +523,11 @@ func quoteList(list []string) string {
 // dataRow is a row below the header with at least one input.
 type dataRow struct {
 	row       int
-	vals      []string // the inputs, two per pair, trimmed
-	note      []byte   // per input: 0, formulaStored or formulaCalculated; nil when none
-	aggregate string   // "AVERAGE of C3:C20" when the inputs aggregate their columns
-	needsCalc bool     // a formula input has no stored result
+	vals      []string       // the inputs, two per pair, trimmed
+	note      []byte         // per input: 0, formulaStored or formulaCalculated; nil when none
+	aggregate string         // "AVERAGE of C3:C20" when the inputs aggregate their columns
+	needsCalc bool           // a formula input has no stored result
+	more      map[int]string // cells of the extra results' columns, by column
 }
 
 const (
@@ -609,6 +610,9 @@ func (s *sheetRun) lastHeaderRow() int { return max(s.headerRow, s.unitRow) }
 // again, as sheets laid out for printing repeat them; such a row is no
 // data.
 func (s *sheetRun) repeatsHeader(vals []string) bool {
+	if len(s.pairs) == 0 {
+		return false
+	}
 	idx := 0
 	for _, p := range s.pairs {
 		for _, c := range p.in {
@@ -813,12 +817,18 @@ func (s *sheetRun) outHeader(p pairSpec, o output) string {
 
 // outHeaderAt is the header of result column i.
 func (s *sheetRun) outHeaderAt(i int) string {
+	if h, ok := s.extraHeader(i); ok {
+		return h
+	}
 	width := 1 + len(s.outs)
 	return s.ss.Pairs[i/width].Outputs[i%width].Header
 }
 
 // outUnitAt is the unit of result column i, for a row of units.
 func (s *sheetRun) outUnitAt(i int) string {
+	if u, ok := s.extraUnit(i); ok {
+		return u
+	}
 	width := 1 + len(s.outs)
 	return s.ss.Pairs[i/width].Outputs[i%width].Unit
 }
@@ -860,6 +870,9 @@ func (s *sheetRun) count(ss *SheetSummary, dr *dataRow, res *rowResult, vals []a
 			worst = o
 		}
 	}
+	for _, o := range res.extra { // a process or check status
+		worst = max(worst, o)
+	}
 	if dr.aggregate != "" {
 		ss.Aggregate++
 	} else {
@@ -888,4 +901,5 @@ func (s *sheetRun) count(ss *SheetSummary, dr *dataRow, res *rowResult, vals []a
 		status, _ := vals[i*width].(string)
 		s.run.sum.Listed = append(s.run.sum.Listed, Listing{Sheet: s.name, Row: dr.row, pair: i, sheet: s, Status: status, Failed: o == outcomeFailed})
 	}
+	s.listExtras(dr, res, vals)
 }

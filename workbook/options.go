@@ -68,6 +68,20 @@ type Options struct {
 	// key "" sets every property not named. The value stored is always
 	// the full float64.
 	Digits map[string]int
+	// U gives one uncertainty for every input of a name, as --u does:
+	// "p=0.2bar,t=0.5K" (point.ParseUncertaintyList); a "u(p) [bar]"
+	// column beside an input gives it per row instead. Results then get
+	// u(…) columns (results.go).
+	U string
+	// Process names a process kind (expansion, compression, throttling,
+	// mixing, exchanger) computed from the numbered inputs of each row
+	// (p1, t1, p2, t2 …).
+	Process string
+	// Check lists properties whose columns the sheet holds already, to
+	// compare with steamcell's (check.go); CheckTol is the relative
+	// tolerance beyond which a row is flagged, 0 for DefaultCheckTol.
+	Check    []string
+	CheckTol float64
 }
 
 // DefaultMemory is Options.Memory when it is 0.
@@ -116,8 +130,10 @@ type SheetSummary struct {
 	Flagged   int
 	Failed    int
 	Blank     int
-	Aggregate int // aggregate rows, not counted in Rows
-	Comments  int // problem comments added
+	Aggregate int             // aggregate rows, not counted in Rows
+	Comments  int             // problem comments added
+	Process   *ProcessSummary // with Options.Process
+	Check     *CheckSummary   // with Options.Check
 }
 
 // Pair is one pair of input columns and the columns written for it.

@@ -25,6 +25,7 @@ const (
 type rowResult struct {
 	outcome  []uint8 // per pair
 	comments []pendingComment
+	extra    map[int]uint8 // outcome of an extra status cell, by result column
 }
 
 // pendingComment is a comment to add: on cell, or on the status cell of
@@ -44,7 +45,15 @@ func (s *sheetRun) solveRow(dr *dataRow, out []any) rowResult {
 	width := 1 + len(s.outs)
 	for i := range s.pairs {
 		res.outcome[i] = s.solvePair(dr, i, out[i*width:(i+1)*width], &res)
+		if s.ext.states != nil {
+			s.ext.states[i] = nil
+			if res.outcome[i] == outcomeOK || res.outcome[i] == outcomeFlagged {
+				st := *s.ans.State()
+				s.ext.states[i] = &st
+			}
+		}
 	}
+	s.solveExtras(dr, out, &res)
 	return res
 }
 
@@ -109,7 +118,14 @@ func (s *sheetRun) solvePair(dr *dataRow, i int, out []any, res *rowResult) uint
 			k++
 		}
 	}
-	status, comment := s.check(st, ans.Warnings)
+	status, comment := "", ""
+	if s.uncertainIn(dr, i) {
+		// The inputs' uncertainties say whether the phase is in doubt
+		// (solveExtras); they replace the fixed margin.
+		status, comment = s.checkWith(0, st, dropSaturationWarning(ans.Warnings))
+	} else {
+		status, comment = s.check(st, ans.Warnings)
+	}
 	if comment != "" {
 		res.comments = append(res.comments, pendingComment{pair: i, row: dr.row, text: "steamcell: " + comment})
 	}
@@ -138,11 +154,16 @@ func (s *sheetRun) aggregateStatus(dr *dataRow, status string) string {
 // needs a look: near saturation, or with a warning of the engine. Both are
 // "" when the point is fine.
 func (s *sheetRun) check(st *fn.State, warnings []string) (status, comment string) {
+	return s.checkWith(s.margin, st, warnings)
+}
+
+// checkWith is check with a margin of its own, K; 0 is off.
+func (s *sheetRun) checkWith(margin float64, st *fn.State, warnings []string) (status, comment string) {
 	set := s.opt.Point.Set
 	var notes []string
-	if s.margin > 0 && !st.HasX && st.P >= fn.PMinSat && st.P < if97.Pc {
+	if margin > 0 && !st.HasX && st.P >= fn.PMinSat && st.P < if97.Pc {
 		ts := if97.SatTemperature(st.P)
-		if d := st.T - ts; math.Abs(d) < s.margin {
+		if d := st.T - ts; math.Abs(d) < margin {
 			side := "above"
 			if d < 0 {
 				side = "below"
@@ -153,7 +174,7 @@ func (s *sheetRun) check(st *fn.State, warnings []string) (status, comment strin
 			eu := set.Unit(units.SpecificEnergy)
 			msg := fmt.Sprintf("T is %s %s the saturation temperature at this pressure (%.2f %s), within the margin of %s. "+
 				"A measurement error that small puts the point in the other phase",
-				dt, side, tu.FromBase(ts, s.opt.Point.Patm), tu.Name, tempDiff(s.margin, set))
+				dt, side, tu.FromBase(ts, s.opt.Point.Patm), tu.Name, tempDiff(margin, set))
 			if liq, err := fn.FromPX(st.P, 0); err == nil {
 				if vap, err := fn.FromPX(st.P, 1); err == nil {
 					msg += fmt.Sprintf(", where h differs by up to the latent heat (%.0f %s here)", eu.FromBase(vap.H-liq.H, 0), eu.Name)

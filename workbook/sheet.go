@@ -57,6 +57,7 @@ type sheetRun struct {
 	relPrefix  string
 	outs2      []outCell // the result columns, in order
 	walkErr    error     // the first error of deciding the header
+	ext        extras    // uncertainty, process and check columns
 }
 
 // outCell is a result column: its letter, the output (nil for the status)
@@ -375,7 +376,7 @@ func (w *walker) keep(row int, c *cellData) bool {
 			return true
 		}
 	}
-	return false
+	return w.s.ext.keep[c.col]
 }
 
 // rowStart checks for cancellation and reports progress now and then.
@@ -448,12 +449,19 @@ func (w *walker) decide() error {
 		}
 		top[tr.row-1] = vals
 	}
-	h, err := readHeader(s.name, top, s.opt)
+	h, err := readHeader(s.name, maskResultHeaders(top, s.opt), s.opt)
 	if err != nil {
 		return err
 	}
 	s.headerRow, s.unitRow, s.pairs = h.row, h.unitRow, h.pairs
 	s.setPairs()
+	var hdr []string
+	if h.row > 0 && h.row <= len(top) {
+		hdr = top[h.row-1]
+	}
+	if err := s.planExtras(hdr); err != nil {
+		return err
+	}
 	w.decided = true
 	return nil
 }
@@ -468,6 +476,13 @@ func (s *sheetRun) dataRowOf(row int, cells []cellData) (dataRow, bool) {
 	any := false
 	aggs, filled := 0, 0 // inputs that aggregate their column; inputs given
 	for _, c := range cells {
+		if s.ext.keep[c.col] {
+			if dr.more == nil {
+				dr.more = map[int]string{}
+			}
+			dr.more[c.col] = strings.TrimSpace(s.sst.value(&c))
+			any = any || dr.more[c.col] != "" && s.isProcessInput(c.col)
+		}
 		for j, p := range s.pairs {
 			for k, in := range p.in {
 				if c.col != in.idx {
@@ -529,6 +544,7 @@ func (s *sheetRun) analyse(dr *dataRow) {
 		s.lastPoint = max(s.lastPoint, dr.row)
 	}
 	s.count(s.ss, dr, &res, vals)
+	s.countExtras(dr, &res, vals)
 	for i, v := range vals {
 		if w := s.cellWidth(i, v); w > s.widths[i] {
 			s.widths[i] = w
@@ -792,6 +808,8 @@ func (w *walker) flushCells(n int) {
 			style := s.styles.xf[styleText]
 			if s.outs2[i].out == nil {
 				style = s.statusStyle(&w.dr, &w.res, i)
+			} else if st, ok := s.extraStyle(&w.res, i); ok {
+				style = st
 			}
 			w.writeText(i, v, style)
 		case float64:

@@ -104,14 +104,14 @@ func (r *run) summaryXML() []byte {
 	}
 	w.row(0, "Rule", `Input columns are found in the header row by their headers ("Drum pressure [barg]") and paired left to right (1st with 2nd, 3rd with 4th); a column map (--map) overrides.`)
 	w.skip()
+	r.resultsSummary(w, bold)
 
 	w.row(bold, "Points to look at", "Status cell", "Status")
 	if len(r.sum.Listed) == 0 {
 		w.row(0, "none: every point is ok")
 	}
 	for _, l := range r.sum.Listed {
-		width := 1 + len(r.outs)
-		cell := cellName(l.sheet.firstOut+l.pair*width, l.Row)
+		cell := l.sheet.listedCell(l.pair, l.Row)
 		style := r.styles.xf[styleCheck]
 		if l.Failed {
 			style = r.styles.xf[styleFailed]

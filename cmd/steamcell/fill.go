@@ -17,6 +17,7 @@ import (
 	"golang.org/x/term"
 
 	"steamcell/fn/point"
+	"steamcell/fn/process"
 	"steamcell/fn/units"
 	"steamcell/workbook"
 )
@@ -25,17 +26,21 @@ func init() { verbs = append(verbs, (*App).fillCommand) }
 
 func (a *App) fillCommand() *cobra.Command {
 	var (
-		output     string
-		sheet      string
-		colMap     string
-		headerRow  int
-		add        string
-		unitSet    string
-		patmText   string
-		margin     float64
-		force      bool
-		unzipLimit int64
-		digits     string
+		output      string
+		sheet       string
+		colMap      string
+		headerRow   int
+		add         string
+		unitSet     string
+		patmText    string
+		margin      float64
+		force       bool
+		unzipLimit  int64
+		digits      string
+		uList       string
+		processKind string
+		check       string
+		checkTol    string
 	)
 	cmd := &cobra.Command{
 		Use:   "fill IN.xlsx",
@@ -55,10 +60,19 @@ left to right (steam p,T then feedwater p,T). When the columns are not clear,
 give them with --map "C=p:barg,D=t:C" (pairs separated by ';').
 
 Points within --margin of saturation are flagged: there a small error in p or
-T changes the phase.`,
+T changes the phase.
+
+A "u(p) [bar]" column beside "p [bar]", or --u p=0.2bar,t=0.5K for whole
+columns, gives inputs standard uncertainties, and the results their u(…).
+--process expansion (compression, throttling, mixing, exchanger) adds a process
+and its u from the numbered inputs of each row (p1, t1, p2, t2 …). --check h,s
+compares the sheet's own h and s columns with steamcell and flags rows beyond
+--check-tol (default 0.1 %).`,
 		Example: `  steamcell fill tests.xlsx
   steamcell fill tests.xlsx -o tests_out.xlsx --add h,s,v,x,cp,phase,region --units bar
-  steamcell fill log.csv --sheet log --map "B=p:psig,C=t:F" --units us`,
+  steamcell fill log.csv --sheet log --map "B=p:psig,C=t:F" --units us
+  steamcell fill tg1_section_test.csv --process expansion --u t=0.6K
+  steamcell fill old_record.xlsx --check h,s --check-tol 0.05%`,
 		Args: func(cmd *cobra.Command, args []string) error {
 			if len(args) != 1 {
 				return usageError{fmt.Errorf("fill needs one input workbook, got %d arguments", len(args))}
@@ -93,6 +107,13 @@ T changes the phase.`,
 				opt.Add = strings.Split(add, ",")
 			}
 			if opt.Digits, err = parseDigits(digits); err != nil {
+				return usageError{err}
+			}
+			opt.U, opt.Process = uList, processKind
+			if check != "" {
+				opt.Check = strings.Split(check, ",")
+			}
+			if opt.CheckTol, err = workbook.ParseCheckTol(checkTol); err != nil {
 				return usageError{err}
 			}
 			if output == "" {
@@ -135,6 +156,10 @@ T changes the phase.`,
 	f.Float64Var(&margin, "margin", workbook.DefaultMargin, "flag single-phase points this close to saturation, K; 0 turns the flag off")
 	f.BoolVar(&force, "force", false, "replace the output file if it exists")
 	f.Int64Var(&unzipLimit, "unzip-limit", workbook.DefaultUnzipSizeLimit>>20, "refuse an input that unpacks to more than this, MiB")
+	f.StringVar(&uList, "u", "", `uncertainty of whole input columns, e.g. "p=0.2bar,t=0.5K" (k = 1); a "u(p) [bar]" column gives it per row`)
+	f.StringVar(&processKind, "process", "", "add a process from the numbered inputs of each row (p1 t1 p2 t2 …): "+strings.Join(process.KindNames(), ", "))
+	f.StringVar(&check, "check", "", `compare the sheet's own columns of these properties with steamcell, e.g. "h,s"`)
+	f.StringVar(&checkTol, "check-tol", "", "relative tolerance of --check, e.g. 0.05% (default 0.1%)")
 	f.StringVar(&digits, "digits", "", `decimals shown for results: "3" for all, or "h=1,s=5" by property (the full value is stored)`)
 	return cmd
 }
@@ -231,6 +256,15 @@ func writeFillReport(w io.Writer, output string, sum *workbook.Summary) error {
 			s.Name, strings.Join(cols, "; "), s.HeaderRow, s.Rows, s.OK, s.Flagged, s.Failed, s.Blank, agg)
 		if s.Note != "" {
 			fmt.Fprintf(w, "  note: %s\n", s.Note)
+		}
+		if p := s.Process; p != nil {
+			fmt.Fprintf(w, "  %s: %d ok, %d flagged, %d failed\n", p.Kind, p.OK, p.Flagged, p.Failed)
+		}
+		if c := s.Check; c != nil {
+			fmt.Fprintf(w, "  check: %d rows compared, %d beyond %.3g %%\n", c.Rows, c.Flagged, 100*c.Tol)
+			for _, col := range c.Columns {
+				fmt.Fprintf(w, "    %s %q: largest deviation %+.6g %s (%+.3g %%) in row %d\n", col.Letter, col.Header, col.Largest, col.Unit, 100*col.LargestRel, col.LargestRow)
+			}
 		}
 	}
 	for _, n := range sum.Notes {

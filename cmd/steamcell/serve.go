@@ -210,7 +210,12 @@ type workbookFiller struct {
 }
 
 func (w workbookFiller) Fill(ctx context.Context, in io.Reader, name string, opts server.WorkbookOptions, out io.Writer) (any, error) {
-	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, Memory: w.memory}, out)
+	tol, err := workbook.ParseCheckTol(opts.CheckTol)
+	if err != nil {
+		return nil, server.InputProblem(err)
+	}
+	sum, err := workbook.Fill(ctx, in, name, workbook.Options{Add: opts.Symbols, Point: opts.Point, Version: Version, Memory: w.memory,
+		U: opts.U, Process: opts.Process, Check: opts.Check, CheckTol: tol}, out)
 	var we *workbook.Error
 	if errors.As(err, &we) {
 		return nil, server.InputProblem(err)

@@ -107,7 +107,7 @@ var kinds = []Kind{
 	{"compression", "pump or compressor: isentropic efficiency (h2s − h1)/(h2 − h1), work per kg (negative: work done on the fluid)", "state 1 (inlet) and state 2 (outlet), e.g. p1 t1 p2 t2", []string{"efficiency", "h2s", "work", "work_s"}, compression},
 	{"throttling", "throttling calorimeter: the upstream quality from the downstream state at the same enthalpy", "p1 (upstream) and state 2 (downstream, superheated), e.g. p1 p2 t2", []string{"h1", "x1", "t1"}, throttling},
 	{"mixing", "mixing point or desuperheater spray: the outlet of two inlets with flows m1, m2; or, given t3, the flow m2 that reaches it", "states 1 and 2 with m1 and m2 (outlet p3, default p1); or states 1, 2, m1 and t3", []string{"h3", "t3", "x3", "m3", "m2"}, mixing},
-	{"exchanger", "closed feedwater heater: duty and extraction flow per kg of feedwater, TTD and DCA", "extraction steam 1 (p1 is the shell pressure), drain 2 (t2; p2 default p1), feedwater in 3 (p3 t3) and out 4 (t4; p4 default p3)", []string{"duty", "extraction", "ttd", "dca"}, exchanger},
+	{"exchanger", "closed feedwater heater: duty and extraction flow per kg of feedwater, TTD and DCA", "extraction steam 1 (p1 is the shell pressure), drain 2 (t2; p2 default p1), feedwater in 3 (p3 t3) and out 4 (t4; p4 default p3)", []string{"duty", "extraction", "ttd", "dca", "tsat"}, exchanger},
 }
 
 // Kinds returns the process kinds.
