@@ -124,12 +124,21 @@ func pairs() map[[2]Quantity]*pairSolver {
 // R7-97(2012) (regions 1 and 2, region 2's continued past 1073.15 K for
 // region 5) and SR3-03(2014) (region 3).
 func isobarPair(q Quantity) *pairSolver {
-	q5Min := regionSpans.s5Min
+	// The span of q over each Gibbs region (regionSpans) gates its start
+	// before the backward equation is evaluated: most values lie outside
+	// all but one region's span, and a gate is a comparison where a
+	// backward equation is a polynomial of some forty terms.
+	sp := regionSpans
+	span := [6][2]float64{1: {math.Inf(-1), sp.s1Max}, 2: {sp.s2Min, math.Inf(1)}, 5: {sp.s5Min, math.Inf(1)}}
 	if q == Enthalpy {
-		q5Min = regionSpans.h5Min
+		span = [6][2]float64{1: {math.Inf(-1), sp.h1Max}, 2: {sp.h2Min, sp.h2Max}, 5: {sp.h5Min, math.Inf(1)}}
 	}
 	gibbs := func(r int) func(p, val float64) (float64, float64, bool) {
+		lo, hi := span[r][0], span[r][1]
 		return func(p, val float64) (float64, float64, bool) {
+			if val < lo || val > hi {
+				return 0, 0, false
+			}
 			br := r
 			if r == 5 {
 				br = 2
@@ -137,11 +146,7 @@ func isobarPair(q Quantity) *pairSolver {
 			T := backwardT(br, p, q, val)
 			if r == 5 {
 				// Region 2's equation run wild on a region-3 value can
-				// land above 1073.15 K: region 5 holds no value below its
-				// smallest, at 50 MPa and 1073.15 K.
-				if val < q5Min {
-					return 0, 0, false
-				}
+				// land above 1073.15 K.
 				T = math.Min(T, TMaxHigh)
 			}
 			return p, T, nearRegion(r, p, T)
@@ -187,7 +192,19 @@ func nearRegion(r int, p, T float64) bool {
 // Region 5's smallest h is at that corner too, and region 2's largest h
 // at 1073.15 K and p → 0 (h rises as p falls along every isotherm of
 // region 2), taken at region 2's lowest pressure in the solves, 1e-9 MPa.
-var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h2Max, h5Min float64 }) {
+//
+// h rises with T along every isobar, so each region's smallest h lies on
+// its lower edge in T and its largest on its upper edge. Region 1's
+// largest h is that of saturated liquid at 623.15 K: along the 623.15 K
+// isotherm h falls with p from there ((∂h/∂p)_T = v(1 − Tαv) < 0 while
+// Tαv > 1) and reaches only 1554 kJ/kg at 100 MPa, against 1671 kJ/kg at
+// the corner; both corners are taken. Region 2's smallest h lies on its
+// lower edge: saturated vapour, whose h has its one maximum near 3 MPa,
+// is lowest at one end of the line, at 273.15 K (2501 kJ/kg) or
+// 623.15 K (2564 kJ/kg), the B23 line rises in h from its 623.15 K end,
+// and below the triple-point pressure h at 273.15 K rises as p falls; both
+// ends are taken.
+var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h1Max, h2Min, h2Max, h5Min float64 }) {
 	const dv, ds = 5e-4, 2e-4 // relative in v; kJ/(kg·K) in s
 	tb := if97.B23Temperature(PMax)
 	l, g := if97.Region1(P13Sat, T13), if97.Region2(P13Sat, T13)
@@ -201,6 +218,8 @@ var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s
 	sp.v5Min, sp.s5Min = c5.V*(1-dv), c5.S-ds
 	const dh = 0.2 // kJ/kg, IF97's consistency in h at the boundaries, as recalled
 	sp.h5Min, sp.h2Max = c5.H-dh, if97.Region2(1e-9, TMax).H+dh
+	sp.h1Max = math.Max(l.H, c1.H) + dh
+	sp.h2Min = math.Min(if97.Region2(PMinSat, TMin).H, g.H) - dh
 	return sp
 }()
 
