@@ -88,13 +88,18 @@ func (ps *pairSolver) solvePair(x, y float64, g given) (State, error) {
 	return ps.fallback(x, y, g)
 }
 
-// pairTable holds every pair solved by solvePair, keyed by its
-// quantities in canonical order. (p,T), (p,x) and (T,x) need no solve.
-// It is filled in init: the fallbacks of (h,s) and (u,v) solve other
-// pairs through Solve.
-var pairTable map[[2]Quantity]*pairSolver
+// pairTable holds every pair solved by solvePair, indexed by its
+// quantities in canonical order (nil for the others). (p,T), (p,x) and
+// (T,x) need no solve. It is an array, not the map pairs returns: a map
+// lookup hashes its key, a few percent of a (p,h) solve. It is filled in
+// init: the fallbacks of (h,s) and (u,v) solve other pairs through Solve.
+var pairTable [Quality + 1][Quality + 1]*pairSolver
 
-func init() { pairTable = pairs() }
+func init() {
+	for k, ps := range pairs() {
+		pairTable[k[0]][k[1]] = ps
+	}
+}
 
 func pairs() map[[2]Quantity]*pairSolver {
 	return map[[2]Quantity]*pairSolver{

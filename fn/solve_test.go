@@ -179,7 +179,7 @@ func TestAcceptRejectsWetStates(t *testing.T) {
 				t.Fatal(err)
 			}
 			for _, q := range []Input{{Enthalpy, wet.H}, {Entropy, wet.S}} {
-				ps := pairTable[[2]Quantity{Pressure, q.Q}]
+				ps := pairTable[Pressure][q.Q]
 				for _, c := range ps.cands {
 					a, T0, ok := c.start(wet.P, q.Value)
 					if !ok {
