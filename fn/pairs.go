@@ -206,12 +206,13 @@ func nearRegion(r int, p, T float64) bool {
 // largest h is that of saturated liquid at 623.15 K: along the 623.15 K
 // isotherm h falls with p from there ((∂h/∂p)_T = v(1 − Tαv) < 0 while
 // Tαv > 1) and reaches only 1554 kJ/kg at 100 MPa, against 1671 kJ/kg at
-// the corner; both corners are taken. Region 2's smallest h lies on its
-// lower edge: saturated vapour, whose h has its one maximum near 3 MPa,
-// is lowest at one end of the line, at 273.15 K (2501 kJ/kg) or
-// 623.15 K (2564 kJ/kg), the B23 line rises in h from its 623.15 K end,
-// and below the triple-point pressure h at 273.15 K rises as p falls; both
-// ends are taken.
+// the corner (a scan of the isotherm in 10 000 steps of p finds nothing
+// larger); both corners are taken. Region 2's smallest h lies on its
+// lower edge: saturated vapour, whose h has its one maximum near 3 MPa
+// (from memory), is lowest at one end of the line, at 273.15 K
+// (2501 kJ/kg) or 623.15 K (2564 kJ/kg); the B23 line rises in h from its
+// 623.15 K end, and below the triple-point pressure h at 273.15 K rises as
+// p falls (scans of both lines in 10 000 steps); both ends are taken.
 var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h1Max, h2Min, h2Max, h5Min float64 }) {
 	const dv, ds = 5e-4, 2e-4 // relative in v; kJ/(kg·K) in s
 	tb := if97.B23Temperature(PMax)
