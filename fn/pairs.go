@@ -187,10 +187,21 @@ func nearRegion(r int, p, T float64) bool {
 // an isobar and fall with p along an isotherm above 277 K, so region 1's
 // largest v and s are those of saturated liquid at 623.15 K; region 2's
 // and region 5's smallest v are at their highest pressure and lowest
-// temperature (100 MPa on the B23 line, 50 MPa at 1073.15 K), region 2's
-// smallest s at 100 MPa on the B23 line too; region 3 spans the densities
-// from its 100 MPa, 623.15 K corner to saturated vapour at 623.15 K and
-// the entropies from that corner to the same vapour.
+// temperature (100 MPa on the B23 line, 50 MPa at 1073.15 K); region 3
+// spans the densities from its 100 MPa, 623.15 K corner to saturated
+// vapour at 623.15 K, and its entropies start at that corner.
+//
+// The entropies where regions 2 and 3 meet come from the B23 line itself
+// (R7-97(2012) Eq. 5), which bounds region 3 above and region 2 below in
+// T: along it s is not monotonic (it rises from 5.211 kJ/(kg·K) at
+// 623.15 K to 5.261 near 644 K and 19.1 MPa, falls to 5.048 near 777 K
+// and 56.6 MPa, and rises to 5.098 at 863.15 K), so region 2's smallest
+// s and region 3's largest are the extremes of a scan of the line in 1 K
+// steps (s is smooth there: the scan's extremes are within 2e-7
+// kJ/(kg·K) of those of a scan in 0.01 K steps), together with saturated
+// vapour at 623.15 K, where region 2's saturation edge meets the line (s
+// of saturated vapour falls as T rises, so that end is the edge's
+// lowest). TestRegionSpansHoldTheirStates checks every span.
 //
 // Each extreme is widened by IF97's consistency at the region boundaries
 // (R7-97(2012) section 4, as recalled: |Δv/v| ≤ 0.05 %, |Δs| ≤
@@ -221,9 +232,14 @@ var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s
 	c2 := if97.Region2(PMax, tb)
 	c5 := if97.Region5(PMaxHigh, TMax)
 	sp.v1Max, sp.s1Max = l.V*(1+dv), l.S+ds
-	sp.v2Min, sp.s2Min = c2.V*(1-dv), c2.S-ds
+	sB23Min, sB23Max := g.S, g.S
+	for T := T13; T <= tb; T++ {
+		s := if97.Region2(if97.B23Pressure(T), T).S
+		sB23Min, sB23Max = math.Min(sB23Min, s), math.Max(sB23Max, s)
+	}
+	sp.v2Min, sp.s2Min = c2.V*(1-dv), math.Min(c2.S, sB23Min)-ds
 	sp.v3Min, sp.v3Max = c1.V*(1-dv), g.V*(1+dv)
-	sp.s3Min, sp.s3Max = c1.S-ds, g.S+ds
+	sp.s3Min, sp.s3Max = c1.S-ds, sB23Max+ds
 	sp.v5Min, sp.s5Min = c5.V*(1-dv), c5.S-ds
 	const dh = 0.2 // kJ/kg, IF97's consistency in h at the boundaries, as recalled
 	sp.h5Min, sp.h2Max = c5.H-dh, if97.Region2(1e-9, TMax).H+dh
