@@ -14,16 +14,20 @@ import (
 // region test is the side of the saturation line too: RegionOf puts
 // p ≥ ps(T) in region 1 and p < ps(T) in region 2.
 func accept(r int, pr *if97.Props) bool {
-	if if97.RegionOf(pr.P, pr.T) != r && !onBoundary(r, pr.P, pr.T) {
-		return false
+	if if97.RegionOf(pr.P, pr.T) != r {
+		if !onBoundary(r, pr.P, pr.T) {
+			return false
+		}
+		// onBoundary may not carry a state across the saturation line:
+		// that would give region 1's liquid at a vapour's (p, T) or the
+		// reverse. (A state RegionOf puts in region r is on r's side
+		// already; testing it again cost a saturation pressure a solve.)
+		if pr.T <= T13 && (r == 1 || r == 2) && (pr.P >= if97.SatPressure(pr.T)) != (r == 1) {
+			return false
+		}
 	}
 	if r == 3 {
 		return stable3(pr)
-	}
-	// onBoundary may not carry a state across the saturation line: that
-	// would give region 1's liquid at a vapour's (p, T) or the reverse.
-	if pr.T <= T13 && (r == 1 || r == 2) {
-		return (pr.P >= if97.SatPressure(pr.T)) == (r == 1)
 	}
 	return true
 }

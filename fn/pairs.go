@@ -88,13 +88,18 @@ func (ps *pairSolver) solvePair(x, y float64, g given) (State, error) {
 	return ps.fallback(x, y, g)
 }
 
-// pairTable holds every pair solved by solvePair, keyed by its
-// quantities in canonical order. (p,T), (p,x) and (T,x) need no solve.
-// It is filled in init: the fallbacks of (h,s) and (u,v) solve other
-// pairs through Solve.
-var pairTable map[[2]Quantity]*pairSolver
+// pairTable holds every pair solved by solvePair, indexed by its
+// quantities in canonical order (nil for the others). (p,T), (p,x) and
+// (T,x) need no solve. It is an array, not the map pairs returns: a map
+// lookup hashes its key, a few percent of a (p,h) solve. It is filled in
+// init: the fallbacks of (h,s) and (u,v) solve other pairs through Solve.
+var pairTable [Quality + 1][Quality + 1]*pairSolver
 
-func init() { pairTable = pairs() }
+func init() {
+	for k, ps := range pairs() {
+		pairTable[k[0]][k[1]] = ps
+	}
+}
 
 func pairs() map[[2]Quantity]*pairSolver {
 	return map[[2]Quantity]*pairSolver{
@@ -124,12 +129,21 @@ func pairs() map[[2]Quantity]*pairSolver {
 // R7-97(2012) (regions 1 and 2, region 2's continued past 1073.15 K for
 // region 5) and SR3-03(2014) (region 3).
 func isobarPair(q Quantity) *pairSolver {
-	q5Min := regionSpans.s5Min
+	// The span of q over each Gibbs region (regionSpans) gates its start
+	// before the backward equation is evaluated: most values lie outside
+	// all but one region's span, and a gate is a comparison where a
+	// backward equation is a polynomial of some forty terms.
+	sp := regionSpans
+	span := [6][2]float64{1: {math.Inf(-1), sp.s1Max}, 2: {sp.s2Min, math.Inf(1)}, 5: {sp.s5Min, math.Inf(1)}}
 	if q == Enthalpy {
-		q5Min = regionSpans.h5Min
+		span = [6][2]float64{1: {math.Inf(-1), sp.h1Max}, 2: {sp.h2Min, sp.h2Max}, 5: {sp.h5Min, math.Inf(1)}}
 	}
 	gibbs := func(r int) func(p, val float64) (float64, float64, bool) {
+		lo, hi := span[r][0], span[r][1]
 		return func(p, val float64) (float64, float64, bool) {
+			if val < lo || val > hi {
+				return 0, 0, false
+			}
 			br := r
 			if r == 5 {
 				br = 2
@@ -137,21 +151,20 @@ func isobarPair(q Quantity) *pairSolver {
 			T := backwardT(br, p, q, val)
 			if r == 5 {
 				// Region 2's equation run wild on a region-3 value can
-				// land above 1073.15 K: region 5 holds no value below its
-				// smallest, at 50 MPa and 1073.15 K.
-				if val < q5Min {
-					return 0, 0, false
-				}
+				// land above 1073.15 K.
 				T = math.Min(T, TMaxHigh)
 			}
 			return p, T, nearRegion(r, p, T)
 		}
 	}
+	// Chosen once here: evaluating the (p,h) equations and then replacing
+	// them with the (p,s) ones was 7 % of a (p,s) solve in its profile.
+	tOf, vOf := if97.Region3TFromPH, if97.Region3VFromPH
+	if q == Entropy {
+		tOf, vOf = if97.Region3TFromPS, if97.Region3VFromPS
+	}
 	three := func(p, val float64) (float64, float64, bool) {
-		T, v := if97.Region3TFromPH(p, val), if97.Region3VFromPH(p, val)
-		if q == Entropy {
-			T, v = if97.Region3TFromPS(p, val), if97.Region3VFromPS(p, val)
-		}
+		T, v := tOf(p, val), vOf(p, val)
 		return 1 / v, T, v > 0 && nearRegion(3, p, T)
 	}
 	return &pairSolver{q1: Pressure, q2: q, quick: true, tolFactor: 1, steps: 8,
@@ -174,10 +187,21 @@ func nearRegion(r int, p, T float64) bool {
 // an isobar and fall with p along an isotherm above 277 K, so region 1's
 // largest v and s are those of saturated liquid at 623.15 K; region 2's
 // and region 5's smallest v are at their highest pressure and lowest
-// temperature (100 MPa on the B23 line, 50 MPa at 1073.15 K), region 2's
-// smallest s at 100 MPa on the B23 line too; region 3 spans the densities
-// from its 100 MPa, 623.15 K corner to saturated vapour at 623.15 K and
-// the entropies from that corner to the same vapour.
+// temperature (100 MPa on the B23 line, 50 MPa at 1073.15 K); region 3
+// spans the densities from its 100 MPa, 623.15 K corner to saturated
+// vapour at 623.15 K, and its entropies start at that corner.
+//
+// The entropies where regions 2 and 3 meet come from the B23 line itself
+// (R7-97(2012) Eq. 5), which bounds region 3 above and region 2 below in
+// T: along it s is not monotonic (it rises from 5.211 kJ/(kg·K) at
+// 623.15 K to 5.261 near 644 K and 19.1 MPa, falls to 5.048 near 777 K
+// and 56.6 MPa, and rises to 5.098 at 863.15 K), so region 2's smallest
+// s and region 3's largest are the extremes of a scan of the line in 1 K
+// steps (s is smooth there: the scan's extremes are within 2e-7
+// kJ/(kg·K) of those of a scan in 0.01 K steps), together with saturated
+// vapour at 623.15 K, where region 2's saturation edge meets the line (s
+// of saturated vapour falls as T rises, so that end is the edge's
+// lowest). TestRegionSpansHoldTheirStates checks every span.
 //
 // Each extreme is widened by IF97's consistency at the region boundaries
 // (R7-97(2012) section 4, as recalled: |Δv/v| ≤ 0.05 %, |Δs| ≤
@@ -187,7 +211,20 @@ func nearRegion(r int, p, T float64) bool {
 // Region 5's smallest h is at that corner too, and region 2's largest h
 // at 1073.15 K and p → 0 (h rises as p falls along every isotherm of
 // region 2), taken at region 2's lowest pressure in the solves, 1e-9 MPa.
-var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h2Max, h5Min float64 }) {
+//
+// h rises with T along every isobar, so each region's smallest h lies on
+// its lower edge in T and its largest on its upper edge. Region 1's
+// largest h is that of saturated liquid at 623.15 K: along the 623.15 K
+// isotherm h falls with p from there ((∂h/∂p)_T = v(1 − Tαv) < 0 while
+// Tαv > 1) and reaches only 1554 kJ/kg at 100 MPa, against 1671 kJ/kg at
+// the corner (a scan of the isotherm in 10 000 steps of p finds nothing
+// larger); both corners are taken. Region 2's smallest h lies on its
+// lower edge: saturated vapour, whose h has its one maximum near 3 MPa
+// (from memory), is lowest at one end of the line, at 273.15 K
+// (2501 kJ/kg) or 623.15 K (2564 kJ/kg); the B23 line rises in h from its
+// 623.15 K end, and below the triple-point pressure h at 273.15 K rises as
+// p falls (scans of both lines in 10 000 steps); both ends are taken.
+var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s2Min, s3Min, s3Max, s5Min, h1Max, h2Min, h2Max, h5Min float64 }) {
 	const dv, ds = 5e-4, 2e-4 // relative in v; kJ/(kg·K) in s
 	tb := if97.B23Temperature(PMax)
 	l, g := if97.Region1(P13Sat, T13), if97.Region2(P13Sat, T13)
@@ -195,12 +232,19 @@ var regionSpans = func() (sp struct{ v1Max, v2Min, v3Min, v3Max, v5Min, s1Max, s
 	c2 := if97.Region2(PMax, tb)
 	c5 := if97.Region5(PMaxHigh, TMax)
 	sp.v1Max, sp.s1Max = l.V*(1+dv), l.S+ds
-	sp.v2Min, sp.s2Min = c2.V*(1-dv), c2.S-ds
+	sB23Min, sB23Max := g.S, g.S
+	for T := T13; T <= tb; T++ {
+		s := if97.Region2(if97.B23Pressure(T), T).S
+		sB23Min, sB23Max = math.Min(sB23Min, s), math.Max(sB23Max, s)
+	}
+	sp.v2Min, sp.s2Min = c2.V*(1-dv), math.Min(c2.S, sB23Min)-ds
 	sp.v3Min, sp.v3Max = c1.V*(1-dv), g.V*(1+dv)
-	sp.s3Min, sp.s3Max = c1.S-ds, g.S+ds
+	sp.s3Min, sp.s3Max = c1.S-ds, sB23Max+ds
 	sp.v5Min, sp.s5Min = c5.V*(1-dv), c5.S-ds
 	const dh = 0.2 // kJ/kg, IF97's consistency in h at the boundaries, as recalled
 	sp.h5Min, sp.h2Max = c5.H-dh, if97.Region2(1e-9, TMax).H+dh
+	sp.h1Max = math.Max(l.H, c1.H) + dh
+	sp.h2Min = math.Min(if97.Region2(PMinSat, TMin).H, g.H) - dh
 	return sp
 }()
 

@@ -63,8 +63,8 @@ func solve(a, b Input) (State, error) {
 	case [2]Quantity{Temperature, Quality}:
 		return FromTX(a.Value, b.Value)
 	}
-	ps, ok := pairTable[[2]Quantity{a.Q, b.Q}]
-	if !ok {
+	ps := pairTable[a.Q][b.Q]
+	if ps == nil {
 		return State{}, pairError(a, b, ErrPair,
 			"supported pairs: p,t  p,h  p,s  h,s  p,x  t,x  p,v  t,v  t,h  t,s  u,v (rho in place of v)")
 	}

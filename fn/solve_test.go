@@ -179,7 +179,7 @@ func TestAcceptRejectsWetStates(t *testing.T) {
 				t.Fatal(err)
 			}
 			for _, q := range []Input{{Enthalpy, wet.H}, {Entropy, wet.S}} {
-				ps := pairTable[[2]Quantity{Pressure, q.Q}]
+				ps := pairTable[Pressure][q.Q]
 				for _, c := range ps.cands {
 					a, T0, ok := c.start(wet.P, q.Value)
 					if !ok {
@@ -263,6 +263,34 @@ func TestEntropyFallsWithPressure(t *testing.T) {
 		case ok && (!scalar.EqualWithinRel(quick.P, search.P, 1e-9) || quick.HasX != search.HasX ||
 			quick.HasX && !scalar.EqualWithinAbs(quick.X, search.X, 1e-9)):
 			t.Errorf("T = %g K, s = %g: quick p = %.10g MPa (x %v %g), search p = %.10g MPa (x %v %g)", T, s, quick.P, quick.HasX, quick.X, search.P, search.HasX, search.X)
+		}
+	}
+}
+
+// Every state of a region must lie within regionSpans, which gate the
+// starts of (p,h), (p,s), (h,s), (p,v), (T,v) and (u,v): a span that shut
+// out a true answer would only send it to the slower fallback, which the
+// round trips cannot see. Checked over the whole-domain scan and a random
+// draw. Identity check, no source.
+func TestRegionSpansHoldTheirStates(t *testing.T) {
+	sp := regionSpans
+	inf := math.Inf(1)
+	type lim struct{ lo, hi float64 }
+	// v, s, h spans of each region; ±inf where regionSpans has no bound.
+	spans := map[int][3]lim{
+		1: {{-inf, sp.v1Max}, {-inf, sp.s1Max}, {-inf, sp.h1Max}},
+		2: {{sp.v2Min, inf}, {sp.s2Min, inf}, {sp.h2Min, sp.h2Max}},
+		3: {{sp.v3Min, sp.v3Max}, {sp.s3Min, sp.s3Max}, {-inf, inf}},
+		5: {{sp.v5Min, inf}, {sp.s5Min, inf}, {sp.h5Min, inf}},
+	}
+	states := append(scanStates(t), randomStates(t, 2000, 5)...)
+	for i := range states {
+		s := &states[i]
+		for k, q := range []Quantity{Volume, Entropy, Enthalpy} {
+			l := spans[s.Region][k]
+			if v := value(q, &s.Props); v < l.lo || v > l.hi {
+				t.Errorf("region %d at p=%.15g MPa, T=%.15g K: %s = %.15g outside its span [%g, %g]", s.Region, s.P, s.T, q.Symbol(), v, l.lo, l.hi)
+			}
 		}
 	}
 }
