@@ -50,16 +50,25 @@
     const tbl = document.createElement("table");
     tbl.id = "answer-table";
     tbl.append(cell("caption", "Properties of the state"));
+    // With ± on an input the answer carries "u": {symbol: standard uncertainty}.
+    const unc = a.u && typeof a.u === "object" ? a.u : null;
     const hr = document.createElement("tr");
-    hr.append(cell("th", "Property", { scope: "col" }), cell("th", "Value", { scope: "col" }), cell("th", "Unit", { scope: "col" }));
+    hr.append(cell("th", "Property", { scope: "col" }), cell("th", "Value", { scope: "col" }));
+    if (unc) hr.append(cell("th", "Standard uncertainty u", { scope: "col" }));
+    hr.append(cell("th", "Unit", { scope: "col" }));
     tbl.append(hr);
     for (const sym in a.units) {
       if (typeof a[sym] !== "number") continue;
       const tr = document.createElement("tr");
-      tr.append(cell("th", sym, { scope: "row" }), cell("td", fmt(a[sym]), { "data-sym": sym, class: "num" }), cell("td", a.units[sym]));
+      tr.append(cell("th", sym, { scope: "row" }), cell("td", fmt(a[sym]), { "data-sym": sym, class: "num" }));
+      if (unc) tr.append(cell("td", typeof unc[sym] === "number" ? fmt(unc[sym]) : "", { "data-u": sym, class: "num" }));
+      tr.append(cell("td", a.units[sym]));
       tbl.append(tr);
     }
     const parts = [head, tbl];
+    if (unc && a.uncertainty) {
+      parts.push(cell("p", "Uncertainty: " + a.uncertainty.applied + (typeof a[a.uncertainty.internal_energy_key] === "number" ? "; internal energy is shown as " + a.uncertainty.internal_energy_key : ""), { class: "note", id: "answer-uncertainty" }));
+    }
     if (a.warnings && a.warnings.length) {
       const ul = cell("ul", "", { class: "warnings", "aria-label": "Warnings" });
       for (const w of a.warnings) ul.append(cell("li", w));

@@ -185,6 +185,52 @@ func TestCalculator(t *testing.T) {
 	}
 }
 
+// TestCalculatorUncertainty types inputs with their standard uncertainties
+// and reads u(h) from the page: the value the server's GUM propagation
+// gives, and, as an outside check, cp·u(T) when only T carries one
+// ((∂h/∂T)p = cp; JCGM 100:2008 Eq. (10)).
+func TestCalculatorUncertainty(t *testing.T) {
+	base := serve(t)
+	ctx := browser(t)
+	err := chromedp.Do(ctx,
+		chromedp.Navigate(base+"/"),
+		chromedp.WaitVisible(chromedp.ID("calc-value1")),
+		chromedp.SetValue(chromedp.ID("calc-name1"), "p"),
+		typeInto("calc-value1", "40 bar"),
+		chromedp.SetValue(chromedp.ID("calc-name2"), "t"),
+		typeInto("calc-value2", "400 C ± 0.5 K"),
+		chromedp.SetValue(chromedp.ID("calc-units"), "si"),
+		chromedp.Click(chromedp.ID("calc-go")),
+		chromedp.WaitVisible(chromedp.CSS(`#answer td[data-u="h"]`)),
+	)
+	if err != nil {
+		t.Fatal(err)
+	}
+	text, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#answer td[data-u="h"]`)))
+	if err != nil {
+		t.Fatal(err)
+	}
+	got, err := strconv.ParseFloat(text, 64)
+	if err != nil {
+		t.Fatalf("u(h) on the page %q: %v", text, err)
+	}
+	st, err := fn.FromPT(4, 673.15)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The page shows seven significant figures.
+	if want := st.Cp * 0.5; !scalar.EqualWithinRel(got, want, 1e-6) {
+		t.Errorf("page u(h) = %s kJ/kg, want cp·u(T) = %.7g", text, want)
+	}
+	note, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("answer-uncertainty")))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(note, "k = 1") {
+		t.Errorf("the page says %q, want the convention applied (k = 1)", note)
+	}
+}
+
 // view is the part of a diagram's JSON form the tests read.
 type view struct {
 	X, Y struct {
