@@ -122,24 +122,33 @@ func IsobarLine(p float64) Line {
 		temps = append(temps, if97.Tc-20+float64(i))
 	}
 	slices.Sort(temps)
-	addedSat := false
-	for _, T := range temps {
-		if sat && !addedSat && T >= ts {
-			if s, err := fn.SaturationAtP(p); err == nil {
-				l.Samples = append(l.Samples, sampleOfProps(&s.Liquid, 0), sampleOfProps(&s.Vapour, 1))
+	l.Samples = sweep(temps, sat, ts, func() ([]Sample, bool) {
+		s, err := fn.SaturationAtP(p)
+		return []Sample{sampleOfProps(&s.Liquid, 0), sampleOfProps(&s.Vapour, 1)}, err == nil
+	}, func(T float64) (fn.State, error) { return fn.FromPT(p, T) })
+	return l
+}
+
+// sweep samples state(x) at each of xs (ascending). With sat set, the
+// saturated phases of plateau() go in where xs first reaches xsat, and a
+// sample at xsat itself, which lies on the line, is left out.
+func sweep(xs []float64, sat bool, xsat float64, plateau func() ([]Sample, bool), state func(float64) (fn.State, error)) []Sample {
+	var out []Sample
+	for _, x := range xs {
+		if sat && x >= xsat {
+			sat = false
+			if ps, ok := plateau(); ok {
+				out = append(out, ps...)
 			}
-			addedSat = true
-			if T == ts {
+			if x == xsat {
 				continue
 			}
 		}
-		st, err := fn.FromPT(p, T)
-		if err != nil {
-			continue
+		if st, err := state(x); err == nil {
+			out = append(out, sampleOf(&st))
 		}
-		l.Samples = append(l.Samples, sampleOf(&st))
 	}
-	return l
+	return out
 }
 
 // isothermSteps is the number of pressures of an isotherm, evenly spaced
@@ -156,29 +165,19 @@ func IsothermLine(T float64) Line {
 	if T > fn.TMax {
 		top = fn.PMaxHigh
 	}
-	var ps float64
+	var psat float64
 	sat := T <= if97.Tc && T >= fn.TMin
 	if sat {
-		ps = if97.SatPressure(T)
+		psat = if97.SatPressure(T)
 	}
-	addedSat := false
-	for i := 0; i <= isothermSteps; i++ {
-		p := pLow * math.Pow(top/pLow, float64(i)/isothermSteps)
-		if sat && !addedSat && p >= ps {
-			if s, err := fn.SaturationAtT(T); err == nil {
-				l.Samples = append(l.Samples, sampleOfProps(&s.Vapour, 1), sampleOfProps(&s.Liquid, 0))
-			}
-			addedSat = true
-			if p == ps {
-				continue
-			}
-		}
-		st, err := fn.FromPT(p, T)
-		if err != nil {
-			continue
-		}
-		l.Samples = append(l.Samples, sampleOf(&st))
+	ps := make([]float64, isothermSteps+1)
+	for i := range ps {
+		ps[i] = pLow * math.Pow(top/pLow, float64(i)/isothermSteps)
 	}
+	l.Samples = sweep(ps, sat, psat, func() ([]Sample, bool) {
+		s, err := fn.SaturationAtT(T)
+		return []Sample{sampleOfProps(&s.Vapour, 1), sampleOfProps(&s.Liquid, 0)}, err == nil
+	}, func(p float64) (fn.State, error) { return fn.FromPT(p, T) })
 	return l
 }
 

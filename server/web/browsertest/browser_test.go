@@ -120,36 +120,43 @@ func typeInto(id, text string) chromedp.Action[chromedp.Void] {
 	return chromedp.Steps(chromedp.Clear(chromedp.ID(id)), chromedp.SendKeys(chromedp.ID(id), text))
 }
 
-// TestCalculator types a state into the calculator and reads the answer
-// from the page.
-func TestCalculator(t *testing.T) {
-	base := serve(t)
-	ctx := browser(t)
+// calculate types p and t into the calculator of the page at base, in the
+// unit set si, and returns the text and number of the answer's cell sel.
+func calculate(t *testing.T, ctx context.Context, base, p, temp, sel string) (string, float64) {
+	t.Helper()
 	err := chromedp.Do(ctx,
 		chromedp.Navigate(base+"/"),
 		chromedp.WaitVisible(chromedp.ID("calc-value1")),
 		chromedp.SetValue(chromedp.ID("calc-name1"), "p"),
-		typeInto("calc-value1", "10 bar"),
+		typeInto("calc-value1", p),
 		chromedp.SetValue(chromedp.ID("calc-name2"), "t"),
-		typeInto("calc-value2", "250 C"),
+		typeInto("calc-value2", temp),
 		chromedp.SetValue(chromedp.ID("calc-units"), "si"),
 		chromedp.Click(chromedp.ID("calc-go")),
-		chromedp.WaitVisible(chromedp.CSS(`#answer td[data-sym="h"]`)),
+		chromedp.WaitVisible(chromedp.CSS(sel)),
 	)
 	if err != nil {
 		t.Fatal(err)
 	}
-	h, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#answer td[data-sym="h"]`)))
+	text, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(sel)))
 	if err != nil {
 		t.Fatal(err)
 	}
+	v, err := strconv.ParseFloat(text, 64)
+	if err != nil {
+		t.Fatalf("%s on the page %q: %v", sel, text, err)
+	}
+	return text, v
+}
+
+// TestCalculator types a state into the calculator and reads the answer
+// from the page.
+func TestCalculator(t *testing.T) {
+	ctx := browser(t)
+	h, got := calculate(t, ctx, serve(t), "10 bar", "250 C", `#answer td[data-sym="h"]`)
 	phase, err := chromedp.Run(ctx, chromedp.Text(chromedp.ID("answer-phase")))
 	if err != nil {
 		t.Fatal(err)
-	}
-	got, err := strconv.ParseFloat(h, 64)
-	if err != nil {
-		t.Fatalf("h on the page %q: %v", h, err)
 	}
 	st, err := fn.FromPT(1, 523.15)
 	if err != nil {
@@ -190,30 +197,8 @@ func TestCalculator(t *testing.T) {
 // gives, and, as an outside check, cp·u(T) when only T carries one
 // ((∂h/∂T)p = cp; JCGM 100:2008 Eq. (10)).
 func TestCalculatorUncertainty(t *testing.T) {
-	base := serve(t)
 	ctx := browser(t)
-	err := chromedp.Do(ctx,
-		chromedp.Navigate(base+"/"),
-		chromedp.WaitVisible(chromedp.ID("calc-value1")),
-		chromedp.SetValue(chromedp.ID("calc-name1"), "p"),
-		typeInto("calc-value1", "40 bar"),
-		chromedp.SetValue(chromedp.ID("calc-name2"), "t"),
-		typeInto("calc-value2", "400 C ± 0.5 K"),
-		chromedp.SetValue(chromedp.ID("calc-units"), "si"),
-		chromedp.Click(chromedp.ID("calc-go")),
-		chromedp.WaitVisible(chromedp.CSS(`#answer td[data-u="h"]`)),
-	)
-	if err != nil {
-		t.Fatal(err)
-	}
-	text, err := chromedp.Run(ctx, chromedp.Text(chromedp.CSS(`#answer td[data-u="h"]`)))
-	if err != nil {
-		t.Fatal(err)
-	}
-	got, err := strconv.ParseFloat(text, 64)
-	if err != nil {
-		t.Fatalf("u(h) on the page %q: %v", text, err)
-	}
+	text, got := calculate(t, ctx, serve(t), "40 bar", "400 C ± 0.5 K", `#answer td[data-u="h"]`)
 	st, err := fn.FromPT(4, 673.15)
 	if err != nil {
 		t.Fatal(err)
