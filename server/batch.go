@@ -360,11 +360,15 @@ func (cs *csvSource) plainLine(row *batchRow) bool {
 // (the units cache copies what it keeps, error messages copy the text).
 func bytesView(b []byte) string { return unsafe.String(unsafe.SliceData(b), len(b)) }
 
-// jsonSource reads a JSON array of objects.
+// jsonSource reads a JSON array of objects: on the bytes of the read
+// buffer while the body is well formed (jsonframe.go), and through
+// encoding/json's decoder from the first thing the framer does not take.
 type jsonSource struct {
-	dec *json.Decoder
+	br  *bufio.Reader
+	dec *json.Decoder // nil until the decoder takes over
 	lim *rowLimit
 	set units.Set
+	n   int // elements read
 
 	// The keys of the last row and how they read (point.ReadTable): rows
 	// of one batch mostly share their keys.
@@ -383,20 +387,31 @@ func newJSONSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*jsonSource,
 	if b, _ := br.Peek(3); bytes.Equal(b, []byte("\ufeff")) {
 		_, _ = br.Discard(3)
 	}
-	dec := json.NewDecoder(br)
-	tok, err := dec.Token()
-	if err == io.EOF {
-		return nil, errorf(ErrBadBody, "", `the body is empty; send a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
+	// The array's opening bracket, after any whitespace, as the
+	// decoder's first Token would read it.
+	for {
+		c, err := br.ReadByte()
+		if err == io.EOF {
+			return nil, errorf(ErrBadBody, "", `the body is empty; send a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
+		}
+		if err != nil || c != '[' && !jsonSpace(c) {
+			return nil, errorf(ErrBadBody, "", `the body must be a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
+		}
+		if c == '[' {
+			return &jsonSource{br: br, lim: lim, set: set}, nil
+		}
 	}
-	if d, ok := tok.(json.Delim); err != nil || !ok || d != '[' {
-		return nil, errorf(ErrBadBody, "", `the body must be a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`)
-	}
-	return &jsonSource{dec: dec, lim: lim, set: set}, nil
 }
 
 func (js *jsonSource) next(row *batchRow) error {
 	js.lim.reset()
 	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
+	if js.dec == nil {
+		if done, err := js.frame(row); done {
+			return err
+		}
+		js.decodeRest()
+	}
 	if !js.dec.More() {
 		if _, err := js.dec.Token(); err != nil {
 			return jsonStop(err, row.n)
@@ -414,8 +429,70 @@ func (js *jsonSource) next(row *batchRow) error {
 		return jsonStop(err, row.n)
 	}
 	row.raw = append(row.raw, js.buf.Bytes()...)
+	js.n++
 	row.err = js.readRow(row.raw, row)
 	return nil
+}
+
+// frame reads the next element on the buffer's bytes, or the end of the
+// array. It reports false, having read nothing, for what it leaves to the
+// decoder.
+func (js *jsonSource) frame(row *batchRow) (bool, error) {
+	b, _ := js.br.Peek(js.br.Buffered())
+	if len(b) < 4<<10 {
+		b, _ = js.br.Peek(js.br.Size()) // as much as the buffer holds
+	}
+	i := skipSpace(b, 0)
+	if i < len(b) && b[i] == ']' {
+		return js.frameEnd(b, i+1)
+	}
+	if js.n > 0 {
+		if i >= len(b) || b[i] != ',' {
+			return false, nil
+		}
+		i = skipSpace(b, i+1)
+	}
+	end, spaced, ok := frameValue(b, i, 0)
+	if !ok {
+		return false, nil
+	}
+	if spaced {
+		row.raw = appendCompact(row.raw, b[i:end])
+	} else {
+		row.raw = append(row.raw, b[i:end]...)
+	}
+	_, _ = js.br.Discard(end)
+	js.n++
+	row.err = js.readRow(row.raw, row)
+	return true, nil
+}
+
+// frameEnd takes the end of the array, at b[i] just after its ], when
+// only whitespace follows to the end of the body.
+func (js *jsonSource) frameEnd(b []byte, i int) (bool, error) {
+	if skipSpace(b, i) < len(b) {
+		return false, nil
+	}
+	if _, err := js.br.Peek(len(b) + 1); err != io.EOF {
+		return false, nil
+	}
+	_, _ = js.br.Discard(len(b))
+	return true, io.EOF
+}
+
+// decodeRest hands the rest of the body to encoding/json's decoder, in the
+// state it would be in at this point of the array: after the [ and each
+// element read (one element, 0, stands for them all).
+func (js *jsonSource) decodeRest() {
+	prefix := "["
+	if js.n > 0 {
+		prefix = "[0 " // the space ends the number, whatever follows
+	}
+	js.dec = json.NewDecoder(io.MultiReader(strings.NewReader(prefix), js.br))
+	_, _ = js.dec.Token()
+	if js.n > 0 {
+		_ = js.dec.Decode(&js.elem)
+	}
 }
 
 // jsonStop explains why a JSON body cannot be read on.

@@ -129,26 +129,29 @@ func TestCSVRowsAsEncodingCSV(t *testing.T) {
 
 // refJSONRows reads a JSON body as jsonSource.next and readJSONRow did.
 func refJSONRows(t *testing.T, body string) []string {
-	br := bufio.NewReaderSize(strings.NewReader(body), 64<<10)
-	lim := &rowLimit{r: strings.NewReader(""), max: maxRowBytes}
-	js, err := newJSONSource(br, lim, siSet)
-	if err != nil {
-		t.Fatal(err)
+	body = strings.TrimPrefix(body, "\ufeff")
+	dec := json.NewDecoder(strings.NewReader(body))
+	tok, err := dec.Token()
+	if err == io.EOF {
+		return []string{"start: " + errorf(ErrBadBody, "", `the body is empty; send a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`).Error()}
+	}
+	if d, ok := tok.(json.Delim); err != nil || !ok || d != '[' {
+		return []string{"start: " + errorf(ErrBadBody, "", `the body must be a JSON array of objects, e.g. [{"p":"6 barg","t":"330C"}]`).Error()}
 	}
 	var out []string
 	for n := 1; ; n++ {
 		row := &batchRow{n: n}
-		if !js.dec.More() {
-			if _, err := js.dec.Token(); err != nil {
+		if !dec.More() {
+			if _, err := dec.Token(); err != nil {
 				return append(out, rowDump(row, jsonStop(err, n)))
 			}
-			if _, err := js.dec.Token(); err != io.EOF {
+			if _, err := dec.Token(); err != io.EOF {
 				return append(out, rowDump(row, errorf(ErrBadBody, "", "there is more after the closing ] of the array; send one array")))
 			}
 			return out
 		}
 		var raw json.RawMessage
-		if err := js.dec.Decode(&raw); err != nil {
+		if err := dec.Decode(&raw); err != nil {
 			return append(out, rowDump(row, jsonStop(err, n)))
 		}
 		var b bytes.Buffer
@@ -209,14 +212,16 @@ func refJSONRow(raw []byte, row *batchRow) error {
 	return nil
 }
 
-func TestJSONRowsAsEncodingJSON(t *testing.T) {
+// jsonRowBodies are JSON bodies, well formed and not, that the row
+// source must read as encoding/json reads them.
+func jsonRowBodies() []string {
 	var many strings.Builder
 	many.WriteString("[")
 	for i := range 3000 {
 		fmt.Fprintf(&many, `{"id":%d, "p":"%d barg" ,"t":%d.5e0,"tag":"K\u00e9-%d"},`, i, i%90+1, 200+i%200, i)
 	}
 	many.WriteString(`{"p":"6 barg","t":"330C"}]`)
-	for _, body := range []string{
+	return []string{
 		`[{"tag":"FW-1","p":"6 barg","t":"330C"}]`,
 		`[ {"p" : 600 , "t" : "330 °C" , "note" : "a \"q\" <b>&amp;</b> \u2028 line"} ]`,
 		`[{"Drum pressure [barg]":"6","T (°C)":330,"extra":[1,"]",{"a":null,"b":"}"}]}]`,
@@ -231,26 +236,71 @@ func TestJSONRowsAsEncodingJSON(t *testing.T) {
 		`[{"p":"6 barg","t":"330C"},{"p":1,}]`,
 		`[{"p":"6 barg","t":"330C"}`,
 		`[{"p":"6 barg","t":"330C"}] [1]`,
+		`[{"p":"6 barg","t":"330C"}]  ` + "\n\t\r ",
 		`[{"p [furlong]":"6","t":"330C"}]`,
+		`[{"p":01,"t":"1"},{"p":1.,"t":"1"},{"p":-,"t":"1"},{"p":1e,"t":"1"},{"p":"\x","t":"1"}]`,
+		`[{"p":"6","t":"1","d":` + strings.Repeat("[", 40) + strings.Repeat("]", 40) + `}, {"p":"7","t":"1"}]`,
+		"[{\"p\":\"a\tb\",\"t\":\"1\"}]",
 		`[]`,
+		` [ ] `,
+		``,
+		`  `,
+		`{"p":1}`,
+		`x[]`,
+		"\ufeff[{\"p\":\"6 barg\",\"t\":\"330C\"}]",
 		many.String(),
-	} {
-		br := bufio.NewReaderSize(strings.NewReader(body), 64<<10)
-		lim := &rowLimit{r: strings.NewReader(""), max: maxRowBytes}
-		js, err := newJSONSource(br, lim, siSet)
-		if err != nil {
-			t.Fatal(err)
-		}
-		got, want := readAll(t, js), refJSONRows(t, body)
-		if len(got) != len(want) {
-			t.Fatalf("%.60s: %d rows, want %d\n%q\n%q", body, len(got), len(want), got, want)
-		}
-		for i := range got {
-			if got[i] != want[i] {
-				t.Fatalf("%.60s row %d:\n got %.400s\nwant %.400s", body, i+1, got[i], want[i])
-			}
+	}
+}
+
+// checkJSONRows reads body with the row source through a read buffer of
+// size bytes and compares what it made of each row with the reference.
+func checkJSONRows(t *testing.T, body string, size int) {
+	t.Helper()
+	br := bufio.NewReaderSize(strings.NewReader(body), size)
+	lim := &rowLimit{r: strings.NewReader(""), max: maxRowBytes}
+	var got []string
+	if js, err := newJSONSource(br, lim, siSet); err != nil {
+		got = []string{"start: " + err.Error()}
+	} else {
+		got = readAll(t, js)
+	}
+	want := refJSONRows(t, body)
+	if len(got) != len(want) {
+		t.Fatalf("%.60q (buffer %d): %d rows, want %d\n%q\n%q", body, size, len(got), len(want), got, want)
+	}
+	for i := range got {
+		if got[i] != want[i] {
+			t.Fatalf("%.60q (buffer %d) row %d:\n got %.400s\nwant %.400s", body, size, i+1, got[i], want[i])
 		}
 	}
+}
+
+// TestJSONRowsAsEncodingJSON reads each body through buffers small enough
+// that rows straddle them (the framer hands those to the decoder) and
+// through the server's own.
+func TestJSONRowsAsEncodingJSON(t *testing.T) {
+	for _, body := range jsonRowBodies() {
+		for _, size := range []int{16, 100, 64 << 10} {
+			checkJSONRows(t, body, size)
+		}
+	}
+}
+
+// FuzzJSONRows holds the row source to encoding/json on any body: go test
+// runs the bodies above; go test -fuzz FuzzJSONRows looks for others.
+func FuzzJSONRows(f *testing.F) {
+	for _, body := range jsonRowBodies() {
+		if len(body) < 4<<10 { // the long body makes mutation slow
+			f.Add(body, uint16(0))
+		}
+	}
+	f.Fuzz(func(t *testing.T, body string, size uint16) {
+		n := 64 << 10 // 0: the server's buffer
+		if size > 0 {
+			n = max(16, int(size))
+		}
+		checkJSONRows(t, body, n)
+	})
 }
 
 // siSet is the default unit set, in which the row tests read bare numbers.

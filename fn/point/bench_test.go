@@ -23,7 +23,7 @@ var benchGiven = []Given{{Name: "p", Text: "6 barg"}, {Name: "t", Text: "330 °C
 func BenchmarkReadInputs(b *testing.B) {
 	b.ReportAllocs()
 	for i := 0; i < b.N; i++ {
-		in, _, _ := read(benchGiven, Options{})
+		in, _, _ := read(benchGiven, &Options{})
 		sinkF = in[0].Value
 	}
 }

@@ -62,11 +62,12 @@ func NewPlan(syms []string, opt Options) *Plan {
 // (when the plan has any). Properties with no value for this state are
 // fields with Defined false, unless the plan gives the defaults, which
 // leave them out. a keeps no reference to st.
-func (pl *Plan) Fill(st *fn.State, a *Answer) { pl.fill(st, a, pl.opt) }
+func (pl *Plan) Fill(st *fn.State, a *Answer) { pl.fill(st, a, nil) }
 
-// fill is Fill with the warnings' figures written in the units of notes
-// (the plan's, with the units the inputs were typed in).
-func (pl *Plan) fill(st *fn.State, a *Answer, notes Options) {
+// fill is Fill with the warnings' figures written in the units the inputs
+// were typed in, when typed is not nil; the options of the notes are made
+// only for a state with warnings.
+func (pl *Plan) fill(st *fn.State, a *Answer, typed *typedInputs) {
 	// Reset the flags of what view computes on first use, not the whole
 	// of it: a value is read only where its flag says it is set.
 	w := &a.w
@@ -76,8 +77,14 @@ func (pl *Plan) fill(st *fn.State, a *Answer, notes Options) {
 	a.Phase, a.Region, a.Set = st.Phase.String(), st.Region, pl.set
 	a.Fields = a.Fields[:0]
 	a.Warnings = a.Warnings[:0]
-	for _, n := range st.Warnings {
-		a.Warnings = append(a.Warnings, notes.note(n))
+	if len(st.Warnings) > 0 {
+		notes := pl.opt
+		if typed != nil {
+			notes = notes.withTyped(typed.in, typed.us)
+		}
+		for _, n := range st.Warnings {
+			a.Warnings = append(a.Warnings, notes.note(n))
+		}
 	}
 	a.plan, a.mask = pl, [len(a.mask)]uint64{}
 	for i := range pl.cols {
@@ -92,7 +99,7 @@ func (pl *Plan) fill(st *fn.State, a *Answer, notes Options) {
 			continue
 		}
 		if f.Defined {
-			f.Value = c.prop.fromBase(v, c.unit, pl.opt.Patm)
+			f.Value = c.prop.fromBase(v, &c.unit, pl.opt.Patm)
 		}
 		a.Fields = append(a.Fields, f)
 	}
@@ -105,16 +112,24 @@ func (pl *Plan) fill(st *fn.State, a *Answer, notes Options) {
 
 // Row solves the point given (as Solve does, in the plan's options) and
 // fills a with its answer: the one call per row of a batch, of a page's
-// bulk request or of a workbook writer. The state is kept in a (State), so
-// that a row costs no allocation. On an error a is left as it was.
+// bulk request or of a workbook writer. The state is solved into a (State),
+// so that a row costs no allocation and no copy of it. On an error a's
+// fields are left as they were and its State is not meaningful.
 func (pl *Plan) Row(given []Given, a *Answer) ([2]fn.Input, error) {
-	st, in, us, err := solve(given, pl.opt)
+	var t typedInputs
+	var err error
+	t.in, t.us, err = solveInto(&a.st, given, &pl.opt)
 	if err != nil {
-		return in, err
+		return t.in, err
 	}
-	a.st = st
-	pl.fill(&a.st, a, pl.opt.withTyped(in, us))
-	return in, nil
+	pl.fill(&a.st, a, &t)
+	return t.in, nil
+}
+
+// typedInputs are a point's inputs with the units they were typed in.
+type typedInputs struct {
+	in [2]fn.Input
+	us [2]units.Unit
 }
 
 // State returns the state that Row last solved for a.

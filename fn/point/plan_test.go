@@ -42,7 +42,7 @@ func refRender(st *fn.State, syms []string, opt Options) refAnswer {
 			continue
 		}
 		if f.Defined {
-			f.Value = p.fromBase(v, u, opt.Patm)
+			f.Value = p.fromBase(v, &u, opt.Patm)
 		}
 		a.Fields = append(a.Fields, f)
 	}

@@ -86,6 +86,8 @@ type Given struct {
 	Name string // as typed: "p", "T", "pressure"
 	Text string // the value with an optional unit: "6 barg", "330C", "0.9"
 	Unit string // a unit given apart from the text (a column header, unit_p=); may be empty
+
+	q fn.Quantity // what Name names, when a column plan has read it already (Column.Given)
 }
 
 // Options are the user's choices that apply to a whole point.
@@ -98,7 +100,7 @@ type Options struct {
 
 // read turns exactly two given inputs into the engine's inputs, with the
 // unit each was read in.
-func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
+func read(given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
 	var out [2]fn.Input
 	var us [2]units.Unit
 	if len(given) != 2 {
@@ -113,7 +115,10 @@ func read(given []Given, opt Options) ([2]fn.Input, [2]units.Unit, error) {
 		return out, us, &Error{Kind: ErrInputCount, Msg: msg}
 	}
 	for i, g := range given {
-		q, ok := InputQuantity(g.Name)
+		q, ok := g.q, g.q != 0
+		if !ok {
+			q, ok = InputQuantity(g.Name)
+		}
 		if !ok {
 			return out, us, &Error{Param: g.Name, Kind: ErrUnknownInput,
 				Msg: fmt.Sprintf("%s is not an input; inputs are %s", quote(g.Name), strings.Join(InputNames(), ", "))}
@@ -143,7 +148,7 @@ func Solve(given []Given, opt Options) (fn.State, [2]fn.Input, error) {
 // T came in °C, p in bar when p came in bar. Inputs that cannot be read
 // leave opt as it is.
 func (opt Options) Typed(given []Given) Options {
-	in, us, err := read(given, opt)
+	in, us, err := read(given, &opt)
 	if err != nil {
 		return opt
 	}
@@ -152,19 +157,27 @@ func (opt Options) Typed(given []Given) Options {
 
 // solve is Solve, also giving the units the inputs were typed in.
 func solve(given []Given, opt Options) (fn.State, [2]fn.Input, [2]units.Unit, error) {
+	var st fn.State
+	in, us, err := solveInto(&st, given, &opt)
+	return st, in, us, err
+}
+
+// solveInto is solve writing the state into st, for a caller that keeps
+// one State from point to point (Plan.Row).
+func solveInto(st *fn.State, given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
 	in, us, err := read(given, opt)
 	if err != nil {
-		return fn.State{}, in, us, err
+		return in, us, err
 	}
-	st, err := fn.Solve(in[0], in[1])
+	*st, err = fn.Solve(in[0], in[1])
 	if err == nil {
-		return st, in, us, nil // before errors.As, whose target costs an allocation
+		return in, us, nil // before errors.As, whose target costs an allocation
 	}
 	var ie *fn.InputError
 	if errors.As(err, &ie) {
 		err = userError(ie, given, in, opt.withTyped(in, us))
 	}
-	return st, in, us, err
+	return in, us, err
 }
 
 // inUserUnits is an input error of the engine told in the user's units; it

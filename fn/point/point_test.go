@@ -48,7 +48,7 @@ func TestReadErrors(t *testing.T) {
 		{[]Given{{Name: "p", Text: ""}, {Name: "t", Text: "300 C"}}, units.ErrEmpty},
 		{[]Given{{Name: "p", Text: "1 MPa"}, {Name: "x", Text: "85"}}, units.ErrQualityRange},
 	} {
-		_, _, err := read(tc.given, Options{})
+		_, _, err := read(tc.given, &Options{})
 		if !errors.Is(err, tc.kind) {
 			t.Errorf("read(%v) error %v, want kind %v", tc.given, err, tc.kind)
 		}

@@ -90,9 +90,9 @@ func (p Property) Unit(set units.Set) string {
 
 // fromBase converts a value of the property from base units to u, the
 // set's unit of its quantity.
-func (p Property) fromBase(v float64, u units.Unit, patm float64) float64 {
+func (p *Property) fromBase(v float64, u *units.Unit, patm float64) float64 {
 	if p.Diff {
-		f, _ := diffScale(u)
+		f, _ := diffScale(*u)
 		return v * f
 	}
 	return u.FromBase(v, patm)

@@ -35,7 +35,7 @@ type Column struct {
 
 // Given returns a cell of the column as an input to Solve.
 func (c Column) Given(text string) Given {
-	return Given{Name: c.Symbol, Text: text, Unit: c.Unit}
+	return Given{Name: c.Symbol, Text: text, Unit: c.Unit, q: c.Q}
 }
 
 // Note says how the column's numbers are read, for an answer or a summary:

@@ -136,7 +136,7 @@ func SolveMeasured(given []Given, opt Options, uo UOptions) (Measured, error) {
 	if !any {
 		return Measured{State: uncertain.State{State: st}, Budget: &uncertain.Budget{}, Inputs: in}, nil
 	}
-	_, us, _ := read(plain, opt)
+	_, us, _ := read(plain, &opt)
 	m := Measured{Budget: &uncertain.Budget{}, Inputs: in, Given: any}
 	var ins [2]uncertain.Input
 	for i, g := range plain {
