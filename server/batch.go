@@ -154,6 +154,9 @@ type batchRow struct {
 	ok    bool          // answered with "ok"
 	out   []byte        // the answer row, ready to write
 
+	in       [2]fn.Input // the inputs as solved
+	solveErr error       // why the row has no answer, as solved
+
 	// Kept from row to row, so that a row costs no allocation.
 	line   []byte        // CSV: the line the cells view
 	ans    point.Answer  // the answer
@@ -699,13 +702,23 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 // answer solves one row and writes its answer into r.out. It is safe to
 // call for different rows at once.
 func (s *Server) answer(o *batchOut, r *batchRow) {
-	r.out = r.out[:0]
-	var in [2]fn.Input
-	err := r.err
-	if err == nil {
-		in, err = o.plan.Row(r.given, &r.ans)
+	s.solveRow(o, r)
+	s.writeRow(o, r)
+}
+
+// solveRow solves one row into r.ans, or keeps why it cannot be.
+func (s *Server) solveRow(o *batchOut, r *batchRow) {
+	r.solveErr = r.err
+	if r.solveErr == nil {
+		r.in, r.solveErr = o.plan.Row(r.given, &r.ans)
 	}
-	r.ok = err == nil
+	r.ok = r.solveErr == nil
+}
+
+// writeRow writes the answer of a solved row into r.out.
+func (s *Server) writeRow(o *batchOut, r *batchRow) {
+	r.out = r.out[:0]
+	in, err := r.in, r.solveErr
 	var p problem
 	if err != nil {
 		p = classify(err)
@@ -892,22 +905,24 @@ func countFailed(rows []batchRow) int {
 // solveChunk answers rows, on two workers when the server has them; each
 // row keeps its place, so the order of the answer is that of the body.
 func (s *Server) solveChunk(o *batchOut, rows []batchRow) {
-	if s.cfg.Workers < 2 || len(rows) < 16 {
+	// Each half is solved whole, then written: the engine's loop runs
+	// with its code and coefficients in the caches, as it does alone.
+	part := func(rows []batchRow) {
 		for i := range rows {
-			s.answer(o, &rows[i])
+			s.solveRow(o, &rows[i])
 		}
+		for i := range rows {
+			s.writeRow(o, &rows[i])
+		}
+	}
+	if s.cfg.Workers < 2 || len(rows) < 16 {
+		part(rows)
 		return
 	}
 	half := len(rows) / 2
 	var wg sync.WaitGroup
-	wg.Go(func() {
-		for i := range rows[half:] {
-			s.answer(o, &rows[half+i])
-		}
-	})
-	for i := range rows[:half] {
-		s.answer(o, &rows[i])
-	}
+	wg.Go(func() { part(rows[half:]) })
+	part(rows[:half])
 	wg.Wait()
 }
 

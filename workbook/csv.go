@@ -11,6 +11,8 @@ import (
 	"strings"
 	"unicode/utf16"
 	"unicode/utf8"
+
+	"steamcell/fn/point"
 )
 
 // csvPackage reads CSV text into a new package of one sheet named after
@@ -250,7 +252,7 @@ func (b *packageBuilder) row(n int, vals []any) error {
 			b.buf = append(b.buf, `<c r="`...)
 			b.buf = append(b.buf, cellName(i, n)...)
 			b.buf = append(b.buf, `"><v>`...)
-			b.buf = strconv.AppendFloat(b.buf, v, 'g', -1, 64)
+			b.buf = point.AppendNumber(b.buf, v)
 			b.buf = append(b.buf, `</v></c>`...)
 		case string:
 			b.buf = append(b.buf, `<c r="`...)

@@ -8,6 +8,8 @@ import (
 	"strconv"
 	"strings"
 	"unicode/utf8"
+
+	"steamcell/fn/point"
 )
 
 // A filled sheet is read twice, both times as a stream. The first pass
@@ -823,7 +825,7 @@ func (w *walker) flushCells(n int) {
 			w.buf = append(w.buf, `"><`...)
 			w.buf = append(w.buf, s.mainPrefix...)
 			w.buf = append(w.buf, `v>`...)
-			w.buf = strconv.AppendFloat(w.buf, v, 'g', -1, 64)
+			w.buf = point.AppendNumber(w.buf, v)
 			w.buf = append(w.buf, `</`...)
 			w.buf = append(w.buf, s.mainPrefix...)
 			w.buf = append(w.buf, `v></`...)

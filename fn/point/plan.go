@@ -145,13 +145,6 @@ func lookupIndex(sym string) (int, bool) {
 	return 0, false
 }
 
-// AppendNumber writes v in the shortest form that reads back to the same
-// float64 ("2797.6", "1.5e-05"), which spreadsheets and JSON read as a
-// number: the one form every answer gives its numbers in.
-func AppendNumber(b []byte, v float64) []byte {
-	return strconv.AppendFloat(b, v, 'g', -1, 64)
-}
-
 // AppendCell writes field j as the text of a spreadsheet or CSV cell: its
 // number, or nothing when it has no value for the state.
 func (a *Answer) AppendCell(b []byte, j int) []byte {
