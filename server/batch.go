@@ -703,7 +703,7 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 // call for different rows at once.
 func (s *Server) answer(o *batchOut, r *batchRow) {
 	s.solveRow(o, r)
-	s.writeRow(o, r)
+	r.out = s.writeRow(r.out[:0], o, r)
 }
 
 // solveRow solves one row into r.ans, or keeps why it cannot be.
@@ -715,9 +715,8 @@ func (s *Server) solveRow(o *batchOut, r *batchRow) {
 	r.ok = r.solveErr == nil
 }
 
-// writeRow writes the answer of a solved row into r.out.
-func (s *Server) writeRow(o *batchOut, r *batchRow) {
-	r.out = r.out[:0]
+// writeRow appends the answer of a solved row to b.
+func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow) []byte {
 	in, err := r.in, r.solveErr
 	var p problem
 	if err != nil {
@@ -727,7 +726,6 @@ func (s *Server) writeRow(o *batchOut, r *batchRow) {
 		}
 	}
 	if o.format == "csv" {
-		b := r.out
 		if o.header != nil {
 			for i := range o.header {
 				if i > 0 {
@@ -751,10 +749,8 @@ func (s *Server) writeRow(o *batchOut, r *batchRow) {
 			b = utf8.AppendRune(b, o.delim)
 			b = r.ans.AppendCSV(b, o.delim)
 		}
-		r.out = append(b, '\n')
-		return
+		return append(b, '\n')
 	}
-	b := r.out
 	if r.n > 1 {
 		b = append(b, ",\n"...)
 	} else {
@@ -780,15 +776,11 @@ func (s *Server) writeRow(o *batchOut, r *batchRow) {
 	b = append(b, `,"given":`...)
 	b = o.appendGiven(b, r)
 	if err != nil {
-		r.out = append(b, '}')
-		return
+		return append(b, '}')
 	}
 	b = append(b, ',')
-	start := len(b)
 	r.inputs = point.AppendInputs(r.inputs[:0], in, o.opt)
-	b = r.ans.AppendJSON(b, r.inputs, "")
-	// Drop the answer's opening brace: its fields continue this object.
-	r.out = append(b[:start], b[start+1:]...)
+	return r.ans.AppendJSONFields(b, r.inputs, "")
 }
 
 // appendGiven writes the row as sent: the JSON element, or the CSV cells
@@ -832,6 +824,7 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
 		return
 	}
 	rows := make([]batchRow, chunkRows)
+	var halves [2][]byte // the answers of a chunk, as solveChunk writes them
 	total, failed := 0, 0
 	var stop *problem
 	for done := false; !done; {
@@ -865,9 +858,9 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
 			bytesIn += r.size()
 			n++
 		}
-		s.solveChunk(o, rows[:n])
-		for i := range rows[:n] {
-			if _, err := bw.Write(rows[i].out); err != nil {
+		out := s.solveChunk(o, rows[:n], &halves)
+		for _, b := range out {
+			if _, err := bw.Write(b); err != nil {
 				return
 			}
 		}
@@ -902,28 +895,30 @@ func countFailed(rows []batchRow) int {
 	return n
 }
 
-// solveChunk answers rows, on two workers when the server has them; each
-// row keeps its place, so the order of the answer is that of the body.
-func (s *Server) solveChunk(o *batchOut, rows []batchRow) {
+// solveChunk answers rows, on two workers when the server has them, into
+// the buffers of halves, which it returns in the order of the rows.
+func (s *Server) solveChunk(o *batchOut, rows []batchRow, halves *[2][]byte) [][]byte {
 	// Each half is solved whole, then written: the engine's loop runs
 	// with its code and coefficients in the caches, as it does alone.
-	part := func(rows []batchRow) {
+	part := func(rows []batchRow, b []byte) []byte {
 		for i := range rows {
 			s.solveRow(o, &rows[i])
 		}
 		for i := range rows {
-			s.writeRow(o, &rows[i])
+			b = s.writeRow(b, o, &rows[i])
 		}
+		return b
 	}
 	if s.cfg.Workers < 2 || len(rows) < 16 {
-		part(rows)
-		return
+		halves[0] = part(rows, halves[0][:0])
+		return halves[:1]
 	}
 	half := len(rows) / 2
 	var wg sync.WaitGroup
-	wg.Go(func() { part(rows[half:]) })
-	part(rows[:half])
+	wg.Go(func() { halves[1] = part(rows[half:], halves[1][:0]) })
+	halves[0] = part(rows[:half], halves[0][:0])
 	wg.Wait()
+	return halves[:]
 }
 
 // appendCSVRow writes cells as one CSV line, quoted as point.AppendCSVCell

@@ -35,7 +35,13 @@ func AppendInputs(dst []Input, in [2]fn.Input, opt Options) []Input {
 // not empty, "undefined" (properties asked for that have no value here)
 // and "caution".
 func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
-	b = append(b, '{')
+	return a.AppendJSONFields(append(b, '{'), inputs, caution)
+}
+
+// AppendJSONFields appends what AppendJSON writes after the opening
+// brace, for an object that has fields of its own before them (a row of a
+// batch).
+func (a *Answer) AppendJSONFields(b []byte, inputs []Input, caution string) []byte {
 	if len(inputs) > 0 {
 		b = append(b, `"inputs":{`...)
 		for i, in := range inputs {
@@ -58,9 +64,13 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 			undefined = true
 			continue
 		}
-		b = append(b, ',')
-		b = AppendJSONString(b, f.Symbol)
-		b = append(b, ':')
+		if f.idx < len(fieldKeys) && catalogue[f.idx].Symbol == f.Symbol {
+			b = append(b, fieldKeys[f.idx]...)
+		} else {
+			b = append(b, ',')
+			b = AppendJSONString(b, f.Symbol)
+			b = append(b, ':')
+		}
 		b = AppendNumber(b, f.Value)
 	}
 	b = a.appendUnits(b, inputs)
@@ -92,6 +102,16 @@ func (a *Answer) AppendJSON(b []byte, inputs []Input, caution string) []byte {
 	}
 	return append(b, '}')
 }
+
+// fieldKeys holds the key of each catalogue entry as AppendJSON writes
+// it after the previous field: `,"h":`.
+var fieldKeys = func() [][]byte {
+	keys := make([][]byte, len(catalogue))
+	for i, p := range catalogue {
+		keys[i] = append(AppendJSONString([]byte{','}, p.Symbol), ':')
+	}
+	return keys
+}()
 
 // appendUnits writes "units" (each symbol once: an input first, then a
 // field by its place in the catalogue, as get=h,h asks twice for one
