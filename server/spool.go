@@ -32,6 +32,9 @@ func spoolBody(w http.ResponseWriter, r *http.Request, limit int64, readTimeout,
 	body := http.MaxBytesReader(w, r.Body, limit)
 	rc := http.NewResponseController(w)
 	sp := &spool{}
+	if n := r.ContentLength; n > 0 && n <= spoolMemBytes && n <= limit {
+		sp.mem = make([]byte, 0, n) // grown once, not by doubling
+	}
 	buf := make([]byte, 64<<10)
 	for {
 		n, err := body.Read(buf)

@@ -90,18 +90,20 @@ func (pl *Plan) fill(st *fn.State, a *Answer, typed *typedInputs) {
 	for i := range pl.cols {
 		c := &pl.cols[i]
 		v, ok := c.prop.get(w)
-		f := Field{Symbol: c.prop.Symbol, Name: c.prop.Name, Unit: c.label,
-			Defined: ok && !math.IsNaN(v) && !math.IsInf(v, 0), idx: c.idx}
-		if f.Defined && i < maxProps {
+		defined := ok && !math.IsNaN(v) && !math.IsInf(v, 0)
+		if defined && i < maxProps {
 			a.mask[i/64] |= 1 << (i % 64)
 		}
-		if pl.defaults && !f.Defined {
+		if pl.defaults && !defined {
 			continue
 		}
-		if f.Defined {
+		// The field is written in place: a Field is too large to copy.
+		a.Fields = append(a.Fields, Field{})
+		f := &a.Fields[len(a.Fields)-1]
+		f.Symbol, f.Name, f.Unit, f.Defined, f.idx = c.prop.Symbol, c.prop.Name, c.label, defined, c.idx
+		if defined {
 			f.Value = c.prop.fromBase(v, &c.unit, pl.opt.Patm)
 		}
-		a.Fields = append(a.Fields, f)
 	}
 	a.Warnings = append(a.Warnings, w.trWarn...)
 	if w.sigmaWarn != "" {

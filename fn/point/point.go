@@ -114,7 +114,8 @@ func read(given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
 		}
 		return out, us, &Error{Kind: ErrInputCount, Msg: msg}
 	}
-	for i, g := range given {
+	for i := range given {
+		g := &given[i]
 		q, ok := g.q, g.q != 0
 		if !ok {
 			q, ok = InputQuantity(g.Name)
