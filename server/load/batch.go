@@ -3,11 +3,14 @@ package main
 import (
 	"bufio"
 	"bytes"
+	"cmp"
 	"context"
 	"fmt"
 	"net"
 	"net/http"
+	"os"
 	"os/exec"
+	"strconv"
 	"strings"
 	"time"
 )
@@ -19,14 +22,18 @@ import (
 // anything else is the path of a steamcell binary, started as
 // `BIN serve --addr 127.0.0.1:PORT`. Comparing two builds in one run
 // gives their ratio at the same moment of the machine.
-func runBatch(n int, bins []string, rounds int) error {
-	body := batchBody(n)
-	fmt.Printf("POST /batch?get=h,s,v of %d rows (%.1f MB of CSV), %d rounds\n", n, float64(len(body))/1e6, rounds)
+func runBatch(n int, bins []string, rounds int, json bool, procs int) error {
+	if procs > 0 {
+		serverProcs = strconv.Itoa(procs)
+	}
+	body, kind := batchBody(n, json)
+	fmt.Printf("POST /batch?get=h,s,v of %d rows (%.1f MB of %s), %d rounds, GOMAXPROCS of the servers %s\n",
+		n, float64(len(body))/1e6, kind, rounds, cmp.Or(serverProcs, "as the machine's"))
 	wall := make([][]time.Duration, len(bins))
 	cpu := make([][]time.Duration, len(bins))
 	for r := range rounds {
 		for i, bin := range bins {
-			w, c, size, err := batchRound(bin, body, n)
+			w, c, size, err := batchRound(bin, body, n, json)
 			if err != nil {
 				return fmt.Errorf("%s: %w", bin, err)
 			}
@@ -54,18 +61,42 @@ func median(d []time.Duration) time.Duration {
 	return s[len(s)/2]
 }
 
-// batchBody is n rows of plant readings: 1 to 100 barg, 200 to 499 °C.
-func batchBody(n int) []byte {
+// batchBody is n rows of plant readings: 1 to 100 barg, 200 to 499 °C,
+// as CSV with the units in the header or as a JSON array with the units
+// in the values.
+func batchBody(n int, json bool) ([]byte, string) {
+	if json {
+		b := []byte("[")
+		for i := 1; i <= n; i++ {
+			if i > 1 {
+				b = append(b, ",\n"...)
+			}
+			b = fmt.Appendf(b, `{"id":%d,"p":"%d barg","t":"%d °C"}`, i, 1+i%100, 200+i%300)
+		}
+		return append(b, "]\n"...), "JSON"
+	}
 	b := []byte("id,p [barg],t [°C]\n")
 	for i := 1; i <= n; i++ {
 		b = fmt.Appendf(b, "%d,%d,%d\n", i, 1+i%100, 200+i%300)
 	}
-	return b
+	return b, "CSV"
+}
+
+// serverProcs is GOMAXPROCS of the servers started, "" for the machine's.
+var serverProcs string
+
+// childEnv is the environment of a server started for a batch.
+func childEnv() []string {
+	env := os.Environ()
+	if serverProcs != "" {
+		env = append(env, "GOMAXPROCS="+serverProcs)
+	}
+	return env
 }
 
 // batchRound starts the server, sends the batch once, checks that every
 // row came back ok, and stops the server.
-func batchRound(bin string, body []byte, n int) (wall, cpu time.Duration, size int64, err error) {
+func batchRound(bin string, body []byte, n int, json bool) (wall, cpu time.Duration, size int64, err error) {
 	var c child
 	var stop func()
 	if bin == "self" {
@@ -79,7 +110,11 @@ func batchRound(bin string, body []byte, n int) (wall, cpu time.Duration, size i
 	defer stop()
 	client := &http.Client{Timeout: 10 * time.Minute}
 	cpu0, t0 := c.cpu(), time.Now()
-	resp, err := client.Post(c.base+"/batch?get=h,s,v", "text/csv", bytes.NewReader(body))
+	ctype, okMark, lead := "text/csv", []byte(",ok,"), 1 // the header line
+	if json {
+		ctype, okMark, lead = "application/json", []byte(`"status":"ok"`), 2 // the opening and closing lines
+	}
+	resp, err := client.Post(c.base+"/batch?get=h,s,v", ctype, bytes.NewReader(body))
 	if err != nil {
 		return 0, 0, 0, err
 	}
@@ -90,7 +125,7 @@ func batchRound(bin string, body []byte, n int) (wall, cpu time.Duration, size i
 	for sc.Scan() {
 		size += int64(len(sc.Bytes())) + 1
 		lines++
-		if bytes.Contains(sc.Bytes(), []byte(",ok,")) {
+		if bytes.Contains(sc.Bytes(), okMark) {
 			ok++
 		}
 	}
@@ -98,7 +133,7 @@ func batchRound(bin string, body []byte, n int) (wall, cpu time.Duration, size i
 	if err := sc.Err(); err != nil {
 		return 0, 0, 0, err
 	}
-	if resp.StatusCode != http.StatusOK || lines != n+1 || ok != n {
+	if resp.StatusCode != http.StatusOK || lines != n+lead || ok != n {
 		return 0, 0, 0, fmt.Errorf("status %d, %d lines, %d ok, want %d rows", resp.StatusCode, lines, ok, n)
 	}
 	return wall, cpu, size, nil
@@ -115,6 +150,7 @@ func startBinary(bin string) (child, func(), error) {
 	ln.Close()
 	ctx, cancel := context.WithCancel(context.Background())
 	cmd := exec.CommandContext(ctx, bin, "serve", "--addr", addr)
+	cmd.Env = childEnv()
 	if err := cmd.Start(); err != nil {
 		cancel()
 		return child{}, nil, err

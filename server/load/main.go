@@ -52,10 +52,12 @@ func main() {
 		maxReq   = flag.Int("max-requests", 2_000_000, "most requests of any one run")
 		batch    = flag.Int("batch", 0, "instead: time one POST /batch of this many rows (at most 1000000) on each server of -bin")
 		bins     = flag.String("bin", "self", "with -batch: servers to compare, comma-separated; self, or paths of steamcell binaries")
+		batchIn  = flag.String("batch-in", "csv", "with -batch: the body and answer, csv or json")
+		procs    = flag.Int("procs", 0, "with -batch: GOMAXPROCS of the servers (1: one CPU and one batch worker); 0: the machine's")
 	)
 	flag.Parse()
 	if *batch > 0 {
-		if err := runBatch(*batch, strings.Split(*bins, ","), *rounds); err != nil {
+		if err := runBatch(*batch, strings.Split(*bins, ","), *rounds, *batchIn == "json", *procs); err != nil {
 			fmt.Fprintln(os.Stderr, "load:", err)
 			os.Exit(1)
 		}
@@ -139,6 +141,7 @@ func (c child) cpu() time.Duration {
 // startChild starts a child server and returns it and a stop function.
 func startChild(kind string) (child, func(), error) {
 	cmd := exec.Command(os.Args[0], "-child", kind)
+	cmd.Env = childEnv()
 	stdin, err := cmd.StdinPipe()
 	if err != nil {
 		return child{}, nil, err
