@@ -152,7 +152,6 @@ type batchRow struct {
 	raw   []byte        // JSON: the element as sent, compacted
 	err   error         // why the row cannot be solved as read
 	ok    bool          // answered with "ok"
-	out   []byte        // the answer row, ready to write
 
 	in       [2]fn.Input // the inputs as solved
 	solveErr error       // why the row has no answer, as solved
@@ -697,13 +696,6 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 	}
 	_, err := w.Write(b)
 	return err
-}
-
-// answer solves one row and writes its answer into r.out. It is safe to
-// call for different rows at once.
-func (s *Server) answer(o *batchOut, r *batchRow) {
-	s.solveRow(o, r)
-	r.out = s.writeRow(r.out[:0], o, r)
 }
 
 // solveRow solves one row into r.ans, or keeps why it cannot be.

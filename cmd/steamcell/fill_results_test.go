@@ -10,7 +10,6 @@ import (
 	"strconv"
 	"strings"
 	"testing"
-	"time"
 
 	"github.com/xuri/excelize/v2"
 )
@@ -112,19 +111,7 @@ func TestReadmeFillResults(t *testing.T) {
 // check_tol=, as fill takes its flags; a bad tolerance or process is a
 // 400, not a fill.
 func TestServeWorkbookResults(t *testing.T) {
-	var out, errb lockedBuffer
-	app := NewApp(strings.NewReader(""), &out, &errb)
-	code := make(chan int, 1)
-	go func() { code <- app.Run([]string{"serve", "--addr", "127.0.0.1:0"}) }()
-	base := waitURL(t, &out)
-	defer func() {
-		app.Close()
-		select {
-		case <-code:
-		case <-time.After(10 * time.Second):
-			t.Error("serve did not stop after Close")
-		}
-	}()
+	base := serveForTest(t)
 	post := func(file, query string) (*http.Response, []byte) {
 		body, err := os.ReadFile("../../testdata/demo/" + file)
 		if err != nil {

@@ -18,19 +18,7 @@ import (
 // media type and its VBA part, and a zip that lies about its sizes is
 // 400 bad_workbook (issue 12: named .xlsx, and 500).
 func TestServeWorkbookPackages(t *testing.T) {
-	var out, errb lockedBuffer
-	app := NewApp(strings.NewReader(""), &out, &errb)
-	code := make(chan int, 1)
-	go func() { code <- app.Run([]string{"serve", "--addr", "127.0.0.1:0"}) }()
-	base := waitURL(t, &out)
-	defer func() {
-		app.Close()
-		select {
-		case <-code:
-		case <-time.After(10 * time.Second):
-			t.Error("serve did not stop after Close")
-		}
-	}()
+	base := serveForTest(t)
 
 	dir := t.TempDir()
 	book := filepath.Join(dir, "tests.xlsx")
@@ -134,4 +122,24 @@ func lieAboutSize(t *testing.T, data []byte, name string) []byte {
 		t.Fatal(err)
 	}
 	return b.Bytes()
+}
+
+// serveForTest runs steamcell serve on a free port of 127.0.0.1 until the
+// test ends, and returns its base URL.
+func serveForTest(t *testing.T) string {
+	t.Helper()
+	var out, errb lockedBuffer
+	app := NewApp(strings.NewReader(""), &out, &errb)
+	code := make(chan int, 1)
+	go func() { code <- app.Run([]string{"serve", "--addr", "127.0.0.1:0"}) }()
+	base := waitURL(t, &out)
+	t.Cleanup(func() {
+		app.Close()
+		select {
+		case <-code:
+		case <-time.After(10 * time.Second):
+			t.Error("serve did not stop after Close")
+		}
+	})
+	return base
 }
