@@ -22,6 +22,7 @@ package point
 //	copyright notice, the list of conditions and the disclaimer).
 
 import (
+	"encoding/binary"
 	"math"
 	"math/big"
 	"math/bits"
@@ -205,6 +206,35 @@ const smalls = "00010203040506070809" +
 	"80818283848586878889" +
 	"90919293949596979899"
 
+// put8 writes x, below 10^8, as eight digits with leading zeros, all
+// eight at once in the lanes of one 64-bit word: x splits into two halves
+// of four digits (lanes of 32 bits), each into two pairs (16 bits), each
+// pair into two digits (8 bits). The divisions are multiplications:
+// ⌊y·10486/2^20⌋ = ⌊y/100⌋ for y < 10^4 and ⌊y·103/2^10⌋ = ⌊y/10⌋ for
+// y < 100 (TestPut8 checks both over their whole range).
+func put8(d *[8]byte, x uint32) {
+	v := uint64(x/10000) | uint64(x%10000)<<32 // the first four digits in the low lane
+	q := v * 10486 >> 20 & 0x0000007f_0000007f
+	v = q | (v-q*100)<<16
+	q = v * 103 >> 10 & 0x000f_000f_000f_000f
+	v = q | (v-q*10)<<8
+	binary.LittleEndian.PutUint64(d[:], v|0x30303030_30303030)
+}
+
+// decimalLen is the number of decimal digits of x, at least 1: from the
+// number of its bits, log10(2) ≈ 1233/4096, then one compare.
+func decimalLen(x uint64) int {
+	t := bits.Len64(x|1) * 1233 >> 12
+	if t > 0 && x < pow10u64[t] {
+		return t
+	}
+	return t + 1
+}
+
+// pow10u64 holds 10^0 to 10^19.
+var pow10u64 = [20]uint64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9,
+	1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19}
+
 // AppendNumber writes v in the shortest form that reads back to the same
 // float64 ("2797.6", "1.5e-05"), which spreadsheets and JSON read as a
 // number: the one form every answer gives its numbers in. It writes what
@@ -225,34 +255,23 @@ func AppendNumber(b []byte, v float64) []byte {
 		m |= 1 << 52
 	}
 	s, x := shortest(m, e-1023-52, denorm)
+	// The digits go to fixed places at the end of d, eight at a time in
+	// four pairs that do not wait on one another.
 	var d [24]byte
-	i := len(d)
-	for s >= 1e8 {
-		q := s / 1e8
-		lo := uint32(s - q*1e8)
-		for range 4 {
-			r := lo % 100
-			lo /= 100
-			i -= 2
-			d[i], d[i+1] = smalls[2*r], smalls[2*r+1]
-		}
-		s = q
-	}
-	lo := uint32(s)
-	for lo >= 100 {
-		r := lo % 100
-		lo /= 100
-		i -= 2
-		d[i], d[i+1] = smalls[2*r], smalls[2*r+1]
-	}
-	if lo >= 10 {
-		i -= 2
-		d[i], d[i+1] = smalls[2*lo], smalls[2*lo+1]
+	if s < 1e8 {
+		put8((*[8]byte)(d[16:]), uint32(s))
 	} else {
-		i--
-		d[i] = byte('0' + lo)
+		hi := s / 1e8
+		put8((*[8]byte)(d[16:]), uint32(s-hi*1e8))
+		if hi < 1e8 {
+			put8((*[8]byte)(d[8:]), uint32(hi))
+		} else { // s < 10^17: one digit more
+			top := hi / 1e8
+			put8((*[8]byte)(d[8:]), uint32(hi-top*1e8))
+			d[7] = byte('0' + top)
+		}
 	}
-	digs := d[i:]
+	digs := d[len(d)-decimalLen(s):]
 	nd := len(digs)
 	dp := nd + x
 	if u>>63 != 0 {

@@ -1,6 +1,7 @@
 package point
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"strconv"
@@ -86,4 +87,47 @@ func BenchmarkAppendNumber(b *testing.B) {
 			numberSink = strconv.AppendFloat(buf[:0], vs[i&1023], 'g', -1, 64)
 		}
 	})
+}
+
+// TestPut8 checks the divisions put8 makes by multiplying, over the whole
+// range it uses them on, and its digits against fmt's over every 997th
+// value below 10^8 and the edges.
+func TestPut8(t *testing.T) {
+	for y := uint64(0); y < 10000; y++ {
+		if y*10486>>20 != y/100 {
+			t.Fatalf("⌊%d·10486/2^20⌋ = %d, want %d", y, y*10486>>20, y/100)
+		}
+	}
+	for y := uint64(0); y < 100; y++ {
+		if y*103>>10 != y/10 {
+			t.Fatalf("⌊%d·103/2^10⌋ = %d, want %d", y, y*103>>10, y/10)
+		}
+	}
+	check := func(x uint32) {
+		var d [8]byte
+		put8(&d, x)
+		if got, want := string(d[:]), fmt.Sprintf("%08d", x); got != want {
+			t.Fatalf("put8(%d) = %q, want %q", x, got, want)
+		}
+	}
+	for x := uint32(0); x < 1e8; x += 997 {
+		check(x)
+	}
+	for _, x := range []uint32{0, 1, 9, 10, 99, 100, 9999, 10000, 10001, 99999999} {
+		check(x)
+	}
+}
+
+// TestDecimalLen checks the digit count at every power of ten and its
+// neighbours.
+func TestDecimalLen(t *testing.T) {
+	for n := 1; n < 20; n++ {
+		p := pow10u64[n]
+		if decimalLen(p-1) != n || decimalLen(p) != n+1 {
+			t.Errorf("decimalLen(10^%d-1) = %d, decimalLen(10^%d) = %d; want %d, %d", n, decimalLen(p-1), n, decimalLen(p), n, n+1)
+		}
+	}
+	if decimalLen(0) != 1 || decimalLen(math.MaxUint64) != 20 {
+		t.Errorf("decimalLen(0) = %d, decimalLen(max) = %d; want 1, 20", decimalLen(0), decimalLen(math.MaxUint64))
+	}
 }
