@@ -21,6 +21,17 @@ func (o Options) withTyped(in [2]fn.Input, us [2]units.Unit) Options {
 	return o
 }
 
+// values copies the units read refers to, for withTyped: a zero Unit
+// where there is none.
+func values(us [2]*units.Unit) (v [2]units.Unit) {
+	for i, u := range us {
+		if u != nil {
+			v[i] = *u
+		}
+	}
+	return v
+}
+
 // unitFor returns the unit figures of quantity q are written in: the unit
 // an input of q was typed in, else the unit set's.
 func (o Options) unitFor(q fn.Quantity) units.Unit {

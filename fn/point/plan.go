@@ -80,7 +80,7 @@ func (pl *Plan) fill(st *fn.State, a *Answer, typed *typedInputs) {
 	if len(st.Warnings) > 0 {
 		notes := pl.opt
 		if typed != nil {
-			notes = notes.withTyped(typed.in, typed.us)
+			notes = notes.withTyped(typed.in, values(typed.us))
 		}
 		for _, n := range st.Warnings {
 			a.Warnings = append(a.Warnings, notes.note(n))
@@ -131,7 +131,7 @@ func (pl *Plan) Row(given []Given, a *Answer) ([2]fn.Input, error) {
 // typedInputs are a point's inputs with the units they were typed in.
 type typedInputs struct {
 	in [2]fn.Input
-	us [2]units.Unit
+	us [2]*units.Unit
 }
 
 // State returns the state that Row last solved for a.

@@ -99,10 +99,10 @@ type Options struct {
 }
 
 // read turns exactly two given inputs into the engine's inputs, with the
-// unit each was read in.
-func read(given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
+// unit each was read in (the units package's own, not to be changed).
+func read(given []Given, opt *Options) ([2]fn.Input, [2]*units.Unit, error) {
 	var out [2]fn.Input
-	var us [2]units.Unit
+	var us [2]*units.Unit
 	if len(given) != 2 {
 		var names []string
 		for _, g := range given {
@@ -114,6 +114,7 @@ func read(given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
 		}
 		return out, us, &Error{Kind: ErrInputCount, Msg: msg}
 	}
+	uo := units.Options{Set: opt.Set, Patm: opt.Patm}
 	for i := range given {
 		g := &given[i]
 		q, ok := g.q, g.q != 0
@@ -124,7 +125,8 @@ func read(given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
 			return out, us, &Error{Param: g.Name, Kind: ErrUnknownInput,
 				Msg: fmt.Sprintf("%s is not an input; inputs are %s", quote(g.Name), strings.Join(InputNames(), ", "))}
 		}
-		v, u, err := units.ParseUnit(g.Text, DimOf(q), units.Options{Name: g.Name, Unit: g.Unit, Set: opt.Set, Patm: opt.Patm})
+		uo.Name, uo.Unit = g.Name, g.Unit
+		v, u, err := units.ParseUnitRef(g.Text, DimOf(q), &uo)
 		if err != nil {
 			return out, us, err
 		}
@@ -153,11 +155,11 @@ func (opt Options) Typed(given []Given) Options {
 	if err != nil {
 		return opt
 	}
-	return opt.withTyped(in, us)
+	return opt.withTyped(in, values(us))
 }
 
 // solve is Solve, also giving the units the inputs were typed in.
-func solve(given []Given, opt Options) (fn.State, [2]fn.Input, [2]units.Unit, error) {
+func solve(given []Given, opt Options) (fn.State, [2]fn.Input, [2]*units.Unit, error) {
 	var st fn.State
 	in, us, err := solveInto(&st, given, &opt)
 	return st, in, us, err
@@ -165,7 +167,7 @@ func solve(given []Given, opt Options) (fn.State, [2]fn.Input, [2]units.Unit, er
 
 // solveInto is solve writing the state into st, for a caller that keeps
 // one State from point to point (Plan.Row).
-func solveInto(st *fn.State, given []Given, opt *Options) ([2]fn.Input, [2]units.Unit, error) {
+func solveInto(st *fn.State, given []Given, opt *Options) ([2]fn.Input, [2]*units.Unit, error) {
 	in, us, err := read(given, opt)
 	if err != nil {
 		return in, us, err
@@ -176,7 +178,7 @@ func solveInto(st *fn.State, given []Given, opt *Options) ([2]fn.Input, [2]units
 	}
 	var ie *fn.InputError
 	if errors.As(err, &ie) {
-		err = userError(ie, given, in, opt.withTyped(in, us))
+		err = userError(ie, given, in, opt.withTyped(in, values(us)))
 	}
 	return in, us, err
 }

@@ -142,7 +142,7 @@ func SolveMeasured(given []Given, opt Options, uo UOptions) (Measured, error) {
 	for i, g := range plain {
 		u := 0.0
 		if has[i] {
-			vu := us[i]
+			vu := values(us)[i]
 			typed := vu.FromBase(in[i].Value, opt.Patm)
 			if u, err = ParseUncertainty(g.Name, uncs[i], DimOf(in[i].Q), typed, vu, opt, uo.Convention); err != nil {
 				return Measured{}, err

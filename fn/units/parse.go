@@ -57,6 +57,13 @@ func ParseUnit(text string, d Dim, opt Options) (float64, Unit, error) {
 	return v, *u, nil
 }
 
+// ParseUnitRef is ParseUnit for a caller that reads many values with one
+// Options (a batch's rows): opt is not copied, and the unit returned is
+// the package's own, shared and not to be changed.
+func ParseUnitRef(text string, d Dim, opt *Options) (float64, *Unit, error) {
+	return parse(text, d, opt)
+}
+
 // parse is ParseUnit returning the unit as a pointer into the registry.
 // The common shapes of text take parseFast; the rest, and every error,
 // parseFull.
