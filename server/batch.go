@@ -147,7 +147,7 @@ func (l *rowLimit) reset() { l.n = 0 }
 // batchRow is one row of a batch: as read, then as answered.
 type batchRow struct {
 	n     int           // 1-based row number
-	given []point.Given // the two inputs, or what the row holds
+	given []point.Given // the two inputs, or what the row holds; read only when err is nil
 	cells []string      // CSV: the cells as read
 	raw   []byte        // JSON: the element as sent, compacted
 	err   error         // why the row cannot be solved as read
@@ -158,8 +158,24 @@ type batchRow struct {
 
 	// Kept from row to row, so that a row costs no allocation.
 	line   []byte        // CSV: the line the cells view
+	gen    int           // the source's columns that given was set up for (inputsOf)
 	ans    point.Answer  // the answer
 	inputs []point.Input // its inputs as understood
+}
+
+// inputsOf makes r.given the inputs of cols, their texts still to be set,
+// and returns it. gen names cols within the batch (a JSON body's rows may
+// change their keys): a row read with the same columns as the one before
+// in its place keeps what it had, so that a row costs the texts only.
+func (r *batchRow) inputsOf(cols []point.Column, gen int) []point.Given {
+	if r.gen != gen || len(r.given) != len(cols) {
+		r.given = r.given[:0]
+		for i := range cols {
+			r.given = append(r.given, cols[i].Given(""))
+		}
+		r.gen = gen
+	}
+	return r.given
 }
 
 func (r *batchRow) size() int {
@@ -278,7 +294,7 @@ func sniffDelimiter(br *bufio.Reader) rune {
 
 func (cs *csvSource) next(row *batchRow) error {
 	cs.lim.reset()
-	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
+	row.cells, row.raw, row.err = row.cells[:0], row.raw[:0], nil
 	if cs.pending != nil {
 		row.cells = append(row.cells, cs.pending...)
 		cs.pending = nil
@@ -300,12 +316,13 @@ func (cs *csvSource) next(row *batchRow) error {
 		row.err = errorf(ErrBadBody, "", "the row has %d cells, the header %d", len(row.cells), len(cs.header))
 		return nil
 	}
-	for _, in := range cs.inputs {
+	given := row.inputsOf(cs.inputs, 1)
+	for i := range cs.inputs {
 		text := ""
-		if in.Index < len(row.cells) {
-			text = row.cells[in.Index]
+		if c := cs.inputs[i].Index; c < len(row.cells) {
+			text = row.cells[c]
 		}
-		row.given = append(row.given, in.Given(text))
+		given[i].Text = text
 	}
 	return nil
 }
@@ -376,13 +393,14 @@ type jsonSource struct {
 	// of one batch mostly share their keys.
 	keys  []string
 	table point.Table
+	gen   int // counts the tables, for batchRow.inputsOf
 	err   error
 
 	// Kept from row to row, so that a row costs no allocation.
-	elem     json.RawMessage
-	buf      bytes.Buffer
-	rowKeys  []string // the keys of the row being read, viewing it
-	rowSpans [][2]int // where each key's value lies in the row
+	elem    json.RawMessage
+	buf     bytes.Buffer
+	rowKeys []string // the keys of a row that has others than the last, viewing it
+	fields  []field  // where each member of the row lies in it
 }
 
 func newJSONSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*jsonSource, error) {
@@ -407,7 +425,7 @@ func newJSONSource(br *bufio.Reader, lim *rowLimit, set units.Set) (*jsonSource,
 
 func (js *jsonSource) next(row *batchRow) error {
 	js.lim.reset()
-	row.cells, row.given, row.raw, row.err = row.cells[:0], row.given[:0], row.raw[:0], nil
+	row.cells, row.raw, row.err = row.cells[:0], row.raw[:0], nil
 	if js.dec == nil {
 		if done, err := js.frame(row); done {
 			return err
@@ -432,7 +450,7 @@ func (js *jsonSource) next(row *batchRow) error {
 	}
 	row.raw = append(row.raw, js.buf.Bytes()...)
 	js.n++
-	row.err = js.readRow(row.raw, row)
+	row.err = js.readRow(row.raw, row, false)
 	return nil
 }
 
@@ -454,7 +472,8 @@ func (js *jsonSource) frame(row *batchRow) (bool, error) {
 		}
 		i = skipSpace(b, i+1)
 	}
-	end, spaced, ok := frameValue(b, i, 0)
+	js.fields = js.fields[:0]
+	end, spaced, ok := frameValue(b, i, 0, &js.fields)
 	if !ok {
 		return false, nil
 	}
@@ -462,10 +481,14 @@ func (js *jsonSource) frame(row *batchRow) (bool, error) {
 		row.raw = appendCompact(row.raw, b[i:end])
 	} else {
 		row.raw = append(row.raw, b[i:end]...)
+		for k := range js.fields { // as they lie in row.raw
+			f := &js.fields[k]
+			f.key[0], f.key[1], f.val[0], f.val[1] = f.key[0]-i, f.key[1]-i, f.val[0]-i, f.val[1]-i
+		}
 	}
 	_, _ = js.br.Discard(end)
 	js.n++
-	row.err = js.readRow(row.raw, row)
+	row.err = js.readRow(row.raw, row, !spaced)
 	return true, nil
 }
 
@@ -513,37 +536,42 @@ func jsonStop(err error, n int) error {
 // decoder gives it, keeping the order of its keys. Keys are read as a CSV
 // header is (point.ReadTable: "p", "T", "Drum pressure [barg]"); keys that
 // name no input are passed through. The texts of the inputs view raw.
-func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
+// framed says that js.fields holds the places of raw's members already,
+// as the framer found them.
+func (js *jsonSource) readRow(raw []byte, row *batchRow, framed bool) error {
 	if len(raw) == 0 || raw[0] != '{' {
 		return errorf(ErrBadBody, "", `the row is not a JSON object; give one like {"p":"6 barg","t":"330C"}`)
 	}
-	js.rowKeys, js.rowSpans = js.rowKeys[:0], js.rowSpans[:0]
-	for i := 1; raw[i] != '}'; {
-		if raw[i] == ',' {
-			i++
+	if !framed {
+		js.fields = js.fields[:0]
+		for i := 1; raw[i] != '}'; {
+			if raw[i] == ',' {
+				i++
+			}
+			n, _ := jsonStringLen(raw[i:])
+			v := i + n + 1 // after the colon
+			end := v + jsonValueLen(raw[v:])
+			js.fields = append(js.fields, field{key: [2]int{i, i + n}, val: [2]int{v, end}})
+			i = end
 		}
-		key, n := jsonText(raw[i:])
-		i += n + 1 // and the colon
-		end := i + jsonValueLen(raw[i:])
-		js.rowKeys, js.rowSpans = append(js.rowKeys, key), append(js.rowSpans, [2]int{i, end})
-		i = end
 	}
-	if js.keys == nil || !slices.Equal(js.rowKeys, js.keys) {
-		js.keys = make([]string, len(js.rowKeys))
-		for i, k := range js.rowKeys {
-			js.keys[i] = strings.Clone(k)
-		}
-		js.table, js.err = point.ReadTable(js.keys, nil, nil, js.set)
-		var pe *point.Error
-		if errors.As(js.err, &pe) {
-			js.err = errorf(ErrBadBody, clean(pe.Param, 40), "%s", clean(js.err.Error(), 600))
-		}
+	// The keys are compared as they lie in raw with those of the row
+	// before; only a row with others is read again (keysOf).
+	same := js.keys != nil && len(js.fields) == len(js.keys)
+	for k := 0; same && k < len(js.fields); k++ {
+		key := raw[js.fields[k].key[0]+1 : js.fields[k].key[1]-1]
+		same = bytesView(key) == js.keys[k] && bytes.IndexByte(key, '\\') < 0
+	}
+	if !same {
+		js.keysOf(raw)
 	}
 	if js.err != nil {
 		return js.err
 	}
-	for _, c := range js.table.Columns {
-		sp := js.rowSpans[c.Index]
+	cols := js.table.Columns
+	given := row.inputsOf(cols, js.gen)
+	for i := range cols {
+		sp := js.fields[cols[i].Index].val
 		v := raw[sp[0]:sp[1]]
 		var text string
 		switch v[0] {
@@ -553,11 +581,35 @@ func (js *jsonSource) readRow(raw []byte, row *batchRow) error {
 		case '-', '0', '1', '2', '3', '4', '5', '6', '7', '8', '9':
 			text = bytesView(v)
 		default:
-			return errorf(ErrBadBody, clean(c.Header, 40), "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", clean(c.Header, 40))
+			h := clean(cols[i].Header, 40)
+			return errorf(ErrBadBody, h, "the value of %s must be a string or a number, e.g. \"6 barg\" or 600", h)
 		}
-		row.given = append(row.given, c.Given(text))
+		given[i].Text = text
 	}
 	return nil
+}
+
+// keysOf reads the keys of raw, a row whose keys are not those of the row
+// before (or are escaped), and reads them as a header when they differ.
+func (js *jsonSource) keysOf(raw []byte) {
+	js.rowKeys = js.rowKeys[:0]
+	for _, f := range js.fields {
+		key, _ := jsonText(raw[f.key[0]:f.key[1]])
+		js.rowKeys = append(js.rowKeys, key)
+	}
+	if js.keys != nil && slices.Equal(js.rowKeys, js.keys) {
+		return
+	}
+	js.keys = make([]string, len(js.rowKeys))
+	for i, k := range js.rowKeys {
+		js.keys[i] = strings.Clone(k)
+	}
+	js.gen++
+	js.table, js.err = point.ReadTable(js.keys, nil, nil, js.set)
+	var pe *point.Error
+	if errors.As(js.err, &pe) {
+		js.err = errorf(ErrBadBody, clean(pe.Param, 40), "%s", clean(js.err.Error(), 600))
+	}
 }
 
 // jsonText reads the JSON string at the start of b (valid JSON): its text,

@@ -28,11 +28,18 @@ func skipSpace(b []byte, i int) int {
 	return i
 }
 
+// field is where one member of an object lies: its key, quotes included,
+// and its value.
+type field struct{ key, val [2]int }
+
 // frameValue checks the JSON value that starts at b[i] and returns the
 // index just after it, and whether whitespace lies inside it (outside its
 // strings). ok is false when the value is malformed or does not end
-// within b (a number must be followed by a byte that ends it).
-func frameValue(b []byte, i, depth int) (end int, spaced, ok bool) {
+// within b (a number must be followed by a byte that ends it). When the
+// value is an object and fields is not nil, the places of its members in
+// b are appended to *fields (not those of objects within it), so that the
+// row is read without a second pass.
+func frameValue(b []byte, i, depth int, fields *[]field) (end int, spaced, ok bool) {
 	if i >= len(b) {
 		return i, false, false
 	}
@@ -54,13 +61,16 @@ func frameValue(b []byte, i, depth int) (end int, spaced, ok bool) {
 			return j + 1, spaced, true
 		}
 		for {
+			var f field
 			if c == '{' {
 				if j >= len(b) || b[j] != '"' {
 					return j, spaced, false
 				}
+				f.key[0] = j
 				if j, ok = frameString(b, j); !ok {
 					return j, spaced, false
 				}
+				f.key[1] = j
 				k := skipSpace(b, j)
 				if k >= len(b) || b[k] != ':' {
 					return k, spaced, false
@@ -69,9 +79,13 @@ func frameValue(b []byte, i, depth int) (end int, spaced, ok bool) {
 				j = skipSpace(b, k+1)
 				spaced = spaced || j > k+1
 			}
-			e, sp, ok := frameValue(b, j, depth+1)
+			e, sp, ok := frameValue(b, j, depth+1, nil)
 			if !ok {
 				return e, spaced, false
+			}
+			if c == '{' && fields != nil {
+				f.val = [2]int{j, e}
+				*fields = append(*fields, f)
 			}
 			k := skipSpace(b, e)
 			spaced = spaced || sp || k > e
