@@ -823,7 +823,7 @@ func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow) []byte {
 		return append(b, '}')
 	}
 	b = append(b, ',')
-	r.inputs = point.AppendInputs(r.inputs[:0], in, o.opt)
+	r.inputs = o.plan.AppendInputs(r.inputs[:0], in)
 	return r.ans.AppendJSONFields(b, r.inputs, "")
 }
 

@@ -5,6 +5,7 @@ import (
 	"unicode/utf8"
 
 	"steamcell/fn"
+	"steamcell/fn/units"
 )
 
 // Input is an input as understood, for echoing back: its symbol and its
@@ -13,6 +14,8 @@ type Input struct {
 	Symbol string
 	Value  float64
 	Unit   string
+
+	q fn.Quantity // the quantity, when AppendInputs made it: its key is in inputKeys
 }
 
 // Inputs writes the engine inputs in the units of opt.Set.
@@ -24,9 +27,28 @@ func Inputs(in [2]fn.Input, opt Options) []Input {
 func AppendInputs(dst []Input, in [2]fn.Input, opt Options) []Input {
 	for _, i := range in {
 		u := opt.Set.Unit(DimOf(i.Q))
-		dst = append(dst, Input{Symbol: i.Q.Symbol(), Value: u.FromBase(i.Value, opt.Patm), Unit: u.Name})
+		dst = append(dst, inputIn(i, &u, opt.Patm))
 	}
 	return dst
+}
+
+// AppendInputs is the package's AppendInputs in the plan's options, with
+// the units looked up once for all rows.
+func (pl *Plan) AppendInputs(dst []Input, in [2]fn.Input) []Input {
+	for _, i := range in {
+		if i.Q < 1 || int(i.Q) >= len(pl.inUnits) {
+			return AppendInputs(dst, in, pl.opt) // not an input quantity
+		}
+	}
+	for _, i := range in {
+		dst = append(dst, inputIn(i, &pl.inUnits[i.Q], pl.opt.Patm))
+	}
+	return dst
+}
+
+// inputIn is input i written in unit u.
+func inputIn(i fn.Input, u *units.Unit, patm float64) Input {
+	return Input{Symbol: i.Q.Symbol(), Value: u.FromBase(i.Value, patm), Unit: u.Name, q: i.Q}
 }
 
 // AppendJSON appends the answer as one flat JSON object: "inputs" (when
@@ -48,14 +70,22 @@ func (a *Answer) AppendJSONFields(b []byte, inputs []Input, caution string) []by
 			if i > 0 {
 				b = append(b, ',')
 			}
-			b = AppendJSONString(b, in.Symbol)
-			b = append(b, ':')
+			if int(in.q) < len(inputKeys) && in.q > 0 && in.q.Symbol() == in.Symbol {
+				b = append(b, inputKeys[in.q]...)
+			} else {
+				b = AppendJSONString(b, in.Symbol)
+				b = append(b, ':')
+			}
 			b = AppendNumber(b, in.Value)
 		}
 		b = append(b, "},"...)
 	}
-	b = append(b, `"phase":`...)
-	b = AppendJSONString(b, a.Phase)
+	if int(a.phase) < len(phaseKeys) && a.phase > 0 && a.phase.String() == a.Phase {
+		b = append(b, phaseKeys[a.phase]...)
+	} else {
+		b = append(b, `"phase":`...)
+		b = AppendJSONString(b, a.Phase)
+	}
 	b = append(b, `,"region":`...)
 	b = strconv.AppendInt(b, int64(a.Region), 10)
 	undefined := false
@@ -109,6 +139,26 @@ var fieldKeys = func() [][]byte {
 	keys := make([][]byte, len(catalogue))
 	for i, p := range catalogue {
 		keys[i] = append(AppendJSONString([]byte{','}, p.Symbol), ':')
+	}
+	return keys
+}()
+
+// inputKeys holds the key of each input quantity as AppendJSON writes it
+// in "inputs": `"p":`.
+var inputKeys = func() [][]byte {
+	keys := make([][]byte, fn.Quality+1)
+	for q := fn.Pressure; q <= fn.Quality; q++ {
+		keys[q] = append(AppendJSONString(nil, q.Symbol()), ':')
+	}
+	return keys
+}()
+
+// phaseKeys holds the phase of an answer as AppendJSON writes it:
+// `"phase":"superheated vapour"`.
+var phaseKeys = func() [][]byte {
+	keys := make([][]byte, fn.MetastableVapour+1)
+	for ph := fn.CompressedLiquid; ph <= fn.MetastableVapour; ph++ {
+		keys[ph] = AppendJSONString([]byte(`"phase":`), ph.String())
 	}
 	return keys
 }()

@@ -124,6 +124,10 @@ func trimZeros(x uint64) (uint64, int) {
 		div1e1m  = 0xcccccccccccccccd
 		div1e1le = math.MaxUint64 / 10
 	)
+	// Most shortest digits end in no zero at all: one test for them.
+	if bits.RotateLeft64(x*div1e1m, -1) > div1e1le {
+		return x, 0
+	}
 	p := 0
 	for _, s := range [...]struct {
 		m, le uint64

@@ -24,6 +24,7 @@ type Plan struct {
 	defaults bool // made from nil symbols: only the properties with a value
 	cols     []column
 	set      string
+	inUnits  [fn.Quality + 1]units.Unit // each input quantity's unit in opt.Set
 }
 
 // column is one property of a plan, with its unit resolved.
@@ -41,6 +42,9 @@ func NewPlan(syms []string, opt Options) *Plan {
 	pl := &Plan{opt: opt, defaults: syms == nil, set: opt.Set.Name()}
 	if pl.defaults {
 		syms = defaultSymbols
+	}
+	for q := fn.Pressure; q <= fn.Quality; q++ {
+		pl.inUnits[q] = opt.Set.Unit(DimOf(q))
 	}
 	pl.cols = make([]column, 0, len(syms))
 	for _, sym := range syms {
@@ -74,7 +78,7 @@ func (pl *Plan) fill(st *fn.State, a *Answer, typed *typedInputs) {
 	w.st, w.trDone, w.sigmaDone, w.satDone = st, false, false, false
 	w.trOK, w.trLOK, w.trVOK, w.sigmaOK, w.tsatOK, w.psatOK = false, false, false, false, false, false
 	w.trWarn, w.sigmaWarn = w.trWarn[:0], ""
-	a.Phase, a.Region, a.Set = st.Phase.String(), st.Region, pl.set
+	a.Phase, a.phase, a.Region, a.Set = st.Phase.String(), st.Phase, st.Region, pl.set
 	a.Fields = a.Fields[:0]
 	a.Warnings = a.Warnings[:0]
 	if len(st.Warnings) > 0 {

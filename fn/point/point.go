@@ -244,6 +244,7 @@ type Answer struct {
 	w      view     // the state being written, with its transport properties
 	joined []byte   // scratch for the warnings of a CSV cell
 
+	phase fn.Phase              // the phase Phase names, when a plan filled the answer
 	plan  *Plan                 // the plan that filled the answer
 	mask  [maxProps / 64]uint64 // which columns of plan have a value
 	units unitsCache            // the last "units" written
