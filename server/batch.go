@@ -62,7 +62,10 @@ func (s *Server) postBatch(c *gin.Context) {
 	}
 	defer sp.Close()
 	lim := &rowLimit{r: sp.reader(), max: maxRowBytes}
-	br := bufio.NewReaderSize(lim, 64<<10)
+	m := batchMemories.Get().(*batchMemory)
+	defer m.put()
+	br := m.br
+	br.Reset(lim)
 	if kind == "" {
 		kind = sniffKind(br)
 	}
@@ -89,7 +92,48 @@ func (s *Server) postBatch(c *gin.Context) {
 		out.format = kind
 	}
 	out.prepare()
-	s.streamBatch(c, src, out)
+	s.streamBatch(c, src, out, m)
+}
+
+// batchMemory is what a batch reads, solves and writes through, kept for
+// the next batch (a sync.Pool): a server that answers batch after batch
+// grows its rows' buffers once, and its collector has little to do.
+type batchMemory struct {
+	rows   []batchRow
+	halves [2][]byte // the answers of a chunk, as solveChunk writes them
+	br     *bufio.Reader
+	bw     *bufio.Writer
+}
+
+var batchMemories = sync.Pool{New: func() any {
+	return &batchMemory{
+		rows: make([]batchRow, chunkRows),
+		br:   bufio.NewReaderSize(nil, 64<<10),
+		bw:   bufio.NewWriterSize(nil, 64<<10),
+	}
+}}
+
+// put returns m to the pool, holding nothing of the request and none of
+// the few buffers that an unusual row made large.
+func (m *batchMemory) put() {
+	m.br.Reset(nil)
+	m.bw.Reset(nil)
+	for i := range m.rows {
+		r := &m.rows[i]
+		r.gen = 0 // the next batch numbers its columns anew
+		if cap(r.raw) > 64<<10 {
+			r.raw = nil
+		}
+		if cap(r.line) > 64<<10 {
+			r.line = nil
+		}
+	}
+	for i := range m.halves {
+		if cap(m.halves[i]) > 4*chunkBytes {
+			m.halves[i] = nil
+		}
+	}
+	batchMemories.Put(m)
 }
 
 // bodyKind says from the Content-Type whether a body is CSV or JSON; ""
@@ -852,7 +896,7 @@ func (o *batchOut) appendGiven(b []byte, r *batchRow) []byte {
 }
 
 // streamBatch reads, solves and writes the rows chunk by chunk.
-func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
+func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut, m *batchMemory) {
 	h := c.Writer.Header()
 	if o.format == "csv" {
 		h.Set("Content-Type", "text/csv; charset=utf-8")
@@ -863,12 +907,12 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
 	h.Set("X-Content-Type-Options", "nosniff")
 	c.Status(http.StatusOK)
 	rc := http.NewResponseController(c.Writer)
-	bw := bufio.NewWriterSize(c.Writer, 64<<10)
+	bw := m.bw
+	bw.Reset(c.Writer)
 	if err := o.begin(bw); err != nil {
 		return
 	}
-	rows := make([]batchRow, chunkRows)
-	var halves [2][]byte // the answers of a chunk, as solveChunk writes them
+	rows := m.rows
 	total, failed := 0, 0
 	var stop *problem
 	for done := false; !done; {
@@ -902,7 +946,7 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut) {
 			bytesIn += r.size()
 			n++
 		}
-		out := s.solveChunk(o, rows[:n], &halves)
+		out := s.solveChunk(o, rows[:n], &m.halves)
 		for _, b := range out {
 			if _, err := bw.Write(b); err != nil {
 				return
