@@ -104,7 +104,7 @@ func (p *pipeWriter) Flush()                      {}
 func TestBatchStoppedByShutdown(t *testing.T) {
 	var body strings.Builder
 	body.WriteString("tag,p [bar],t [°C]\n")
-	const rows = 2000 // several chunks of the stream
+	const rows = 10000 // several chunks of the stream (2048 rows a chunk with two workers)
 	for i := range rows {
 		fmt.Fprintf(&body, "FW-%d,1,%d\n", i, 20+i%60)
 	}
