@@ -110,10 +110,11 @@ func (s *Server) postBatch(c *gin.Context) {
 // the next batch (a sync.Pool): a server that answers batch after batch
 // grows its rows' buffers once, and its collector has little to do.
 type batchMemory struct {
-	rows   []batchRow
-	halves [2][]byte // the answers of a chunk, as solveChunk writes them
-	br     *bufio.Reader
-	bw     *bufio.Writer
+	rows    []batchRow
+	halves  [2][]byte // the answers of a chunk, as solveChunk writes them
+	answers [2][blockRows]rowAnswer
+	br      *bufio.Reader
+	bw      *bufio.Writer
 }
 
 var batchMemories = sync.Pool{New: func() any {
@@ -199,7 +200,7 @@ func (l *rowLimit) Read(p []byte) (int, error) {
 
 func (l *rowLimit) reset() { l.n = 0 }
 
-// batchRow is one row of a batch: as read, then as answered.
+// batchRow is one row of a batch, as read, and whether it was answered.
 type batchRow struct {
 	n     int           // 1-based row number
 	given []point.Given // the two inputs, or what the row holds; read only when err is nil
@@ -208,12 +209,19 @@ type batchRow struct {
 	err   error         // why the row cannot be solved as read
 	ok    bool          // answered with "ok"
 
-	in       [2]fn.Input // the inputs as solved
-	solveErr error       // why the row has no answer, as solved
+	// Kept from row to row, so that a row costs no allocation.
+	line []byte // CSV: the line the cells view
+	gen  int    // the source's columns that given was set up for (inputsOf)
+}
+
+// rowAnswer is the answer of one row, held only while its block is solved
+// and written (blockRows of them per worker), so that a chunk of many rows
+// holds their inputs but not their states.
+type rowAnswer struct {
+	in  [2]fn.Input // the inputs as solved
+	err error       // why the row has no answer, as solved
 
 	// Kept from row to row, so that a row costs no allocation.
-	line   []byte        // CSV: the line the cells view
-	gen    int           // the source's columns that given was set up for (inputsOf)
 	ans    point.Answer  // the answer
 	inputs []point.Input // its inputs as understood
 }
@@ -805,18 +813,18 @@ func (o *batchOut) end(w io.Writer, total, failed int, stop *problem) error {
 	return err
 }
 
-// solveRow solves one row into r.ans, or keeps why it cannot be.
-func (s *Server) solveRow(o *batchOut, r *batchRow) {
-	r.solveErr = r.err
-	if r.solveErr == nil {
-		r.in, r.solveErr = o.plan.Row(r.given, &r.ans)
+// solveRow solves row r into a, or keeps why it cannot be.
+func (s *Server) solveRow(o *batchOut, r *batchRow, a *rowAnswer) {
+	a.err = r.err
+	if a.err == nil {
+		a.in, a.err = o.plan.Row(r.given, &a.ans)
 	}
-	r.ok = r.solveErr == nil
+	r.ok = a.err == nil
 }
 
-// writeRow appends the answer of a solved row to b.
-func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow) []byte {
-	in, err := r.in, r.solveErr
+// writeRow appends the answer a of a solved row r to b.
+func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow, a *rowAnswer) []byte {
+	in, err := a.in, a.err
 	var p problem
 	if err != nil {
 		p = classify(err)
@@ -846,7 +854,7 @@ func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow) []byte {
 		} else {
 			b = append(b, "ok"...)
 			b = utf8.AppendRune(b, o.delim)
-			b = r.ans.AppendCSV(b, o.delim)
+			b = a.ans.AppendCSV(b, o.delim)
 		}
 		return append(b, '\n')
 	}
@@ -878,8 +886,8 @@ func (s *Server) writeRow(b []byte, o *batchOut, r *batchRow) []byte {
 		return append(b, '}')
 	}
 	b = append(b, ',')
-	r.inputs = o.plan.AppendInputs(r.inputs[:0], in)
-	return r.ans.AppendJSONFields(b, r.inputs, "")
+	a.inputs = o.plan.AppendInputs(a.inputs[:0], in)
+	return a.ans.AppendJSONFields(b, a.inputs, "")
 }
 
 // appendGiven writes the row as sent: the JSON element, or the CSV cells
@@ -961,7 +969,7 @@ func (s *Server) streamBatch(c *gin.Context, src rowSource, o *batchOut, m *batc
 			bytesIn += r.size()
 			n++
 		}
-		out := s.solveChunk(o, rows[:n], &m.halves)
+		out := s.solveChunk(o, rows[:n], &m.halves, &m.answers)
 		for _, b := range out {
 			if _, err := bw.Write(b); err != nil {
 				return
@@ -999,32 +1007,33 @@ func countFailed(rows []batchRow) int {
 }
 
 // solveChunk answers rows, on two workers when the server has them, into
-// the buffers of halves, which it returns in the order of the rows.
-func (s *Server) solveChunk(o *batchOut, rows []batchRow, halves *[2][]byte) [][]byte {
+// the buffers of halves, which it returns in the order of the rows; each
+// worker holds the answers of its block in its own row of answers.
+func (s *Server) solveChunk(o *batchOut, rows []batchRow, halves *[2][]byte, answers *[2][blockRows]rowAnswer) [][]byte {
 	// Each block of a half is solved whole, then written: the engine's
 	// loop runs with its code and coefficients in the caches, as it does
 	// alone, and the answers are written while they are still there.
-	part := func(rows []batchRow, b []byte) []byte {
+	part := func(rows []batchRow, b []byte, as *[blockRows]rowAnswer) []byte {
 		for len(rows) > 0 {
 			block := rows[:min(len(rows), blockRows)]
 			rows = rows[len(block):]
 			for i := range block {
-				s.solveRow(o, &block[i])
+				s.solveRow(o, &block[i], &as[i])
 			}
 			for i := range block {
-				b = s.writeRow(b, o, &block[i])
+				b = s.writeRow(b, o, &block[i], &as[i])
 			}
 		}
 		return b
 	}
 	if s.cfg.Workers < 2 || len(rows) < 16 {
-		halves[0] = part(rows, halves[0][:0])
+		halves[0] = part(rows, halves[0][:0], &answers[0])
 		return halves[:1]
 	}
 	half := len(rows) / 2
 	var wg sync.WaitGroup
-	wg.Go(func() { halves[1] = part(rows[half:], halves[1][:0]) })
-	halves[0] = part(rows[:half], halves[0][:0])
+	wg.Go(func() { halves[1] = part(rows[half:], halves[1][:0], &answers[1]) })
+	halves[0] = part(rows[:half], halves[0][:0], &answers[0])
 	wg.Wait()
 	return halves[:]
 }

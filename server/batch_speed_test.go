@@ -214,14 +214,15 @@ func TestBatchRowAllocations(t *testing.T) {
 			out.prepare()
 			s := New(Config{Workers: 1, Version: "test"})
 			var row batchRow
+			var ra rowAnswer
 			var answer []byte
 			step := func() {
 				row.n++
 				if err := src.next(&row); err != nil {
 					t.Fatalf("row %d: %v", row.n, err)
 				}
-				s.solveRow(out, &row)
-				answer = s.writeRow(answer[:0], out, &row)
+				s.solveRow(out, &row, &ra)
+				answer = s.writeRow(answer[:0], out, &row, &ra)
 				if !row.ok {
 					t.Fatalf("row %d: %s", row.n, answer)
 				}

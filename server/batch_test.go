@@ -160,7 +160,7 @@ func TestBatchJSON(t *testing.T) {
 // that every answer row is that of its input row.
 func TestBatchOrder(t *testing.T) {
 	srv, _ := newServer(t, server.Config{Workers: 2})
-	const n = 1500
+	const n = 5000 // more than two chunks of 2048 rows
 	var b strings.Builder
 	b.WriteString("n;p [MPa];t [°C]\n")
 	for i := range n {
