@@ -611,10 +611,15 @@ func (js *jsonSource) readRow(raw []byte, row *batchRow, framed bool) error {
 			if raw[i] == ',' {
 				i++
 			}
-			n, _ := jsonStringLen(raw[i:])
+			n, escaped := jsonStringLen(raw[i:])
+			f := field{key: [2]int{i, i + n}}
+			if escaped {
+				f.keyText = strEscaped // as far as comparing keys goes
+			}
 			v := i + n + 1 // after the colon
 			end := v + jsonValueLen(raw[v:])
-			js.fields = append(js.fields, field{key: [2]int{i, i + n}, val: [2]int{v, end}})
+			f.val, f.valText = [2]int{v, end}, strEscaped // a string value is decoded
+			js.fields = append(js.fields, f)
 			i = end
 		}
 	}
@@ -622,8 +627,8 @@ func (js *jsonSource) readRow(raw []byte, row *batchRow, framed bool) error {
 	// before; only a row with others is read again (keysOf).
 	same := js.keys != nil && len(js.fields) == len(js.keys)
 	for k := 0; same && k < len(js.fields); k++ {
-		key := raw[js.fields[k].key[0]+1 : js.fields[k].key[1]-1]
-		same = bytesView(key) == js.keys[k] && bytes.IndexByte(key, '\\') < 0
+		f := &js.fields[k]
+		same = f.keyText&strEscaped == 0 && bytesView(raw[f.key[0]+1:f.key[1]-1]) == js.keys[k]
 	}
 	if !same {
 		js.keysOf(raw)
@@ -634,12 +639,17 @@ func (js *jsonSource) readRow(raw []byte, row *batchRow, framed bool) error {
 	cols := js.table.Columns
 	given := row.inputsOf(cols, js.gen)
 	for i := range cols {
-		sp := js.fields[cols[i].Index].val
-		v := raw[sp[0]:sp[1]]
+		f := &js.fields[cols[i].Index]
+		v := raw[f.val[0]:f.val[1]]
 		var text string
 		switch v[0] {
 		case '"':
-			text, _ = jsonText(v)
+			// Text without escapes reads as it lies, when it is UTF-8.
+			if in := v[1 : len(v)-1]; f.valText == 0 || f.valText == strNonASCII && utf8.Valid(in) {
+				text = bytesView(in)
+			} else {
+				text, _ = jsonText(v)
+			}
 		case 'n':
 		case '-', '0', '1', '2', '3', '4', '5', '6', '7', '8', '9':
 			text = bytesView(v)

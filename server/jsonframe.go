@@ -29,8 +29,22 @@ func skipSpace(b []byte, i int) int {
 }
 
 // field is where one member of an object lies: its key, quotes included,
-// and its value.
-type field struct{ key, val [2]int }
+// and its value, and what the framer saw of their strings.
+type field struct {
+	key, val [2]int
+	keyText  strText // of the key
+	valText  strText // of the value, when it is a string
+}
+
+// strText says what a string holds beyond plain ASCII text: whether it
+// must be decoded to be read (escapes; bytes of 0x80 and above, which may
+// not be UTF-8 and which decoding then turns into U+FFFD).
+type strText uint8
+
+const (
+	strEscaped  strText = 1 << iota // a backslash escape
+	strNonASCII                     // a byte of 0x80 or above
+)
 
 // frameValue checks the JSON value that starts at b[i] and returns the
 // index just after it, and whether whitespace lies inside it (outside its
@@ -45,7 +59,7 @@ func frameValue(b []byte, i, depth int, fields *[]field) (end int, spaced, ok bo
 	}
 	switch c := b[i]; {
 	case c == '"':
-		end, ok = frameString(b, i)
+		end, _, ok = frameString(b, i)
 		return end, false, ok
 	case c == '{' || c == '[':
 		if depth >= maxFrameDepth {
@@ -67,7 +81,7 @@ func frameValue(b []byte, i, depth int, fields *[]field) (end int, spaced, ok bo
 					return j, spaced, false
 				}
 				f.key[0] = j
-				if j, ok = frameString(b, j); !ok {
+				if j, f.keyText, ok = frameString(b, j); !ok {
 					return j, spaced, false
 				}
 				f.key[1] = j
@@ -79,7 +93,13 @@ func frameValue(b []byte, i, depth int, fields *[]field) (end int, spaced, ok bo
 				j = skipSpace(b, k+1)
 				spaced = spaced || j > k+1
 			}
-			e, sp, ok := frameValue(b, j, depth+1, nil)
+			var e int
+			var sp bool
+			if j < len(b) && b[j] == '"' {
+				e, f.valText, ok = frameString(b, j)
+			} else {
+				e, sp, ok = frameValue(b, j, depth+1, nil)
+			}
 			if !ok {
 				return e, spaced, false
 			}
@@ -123,37 +143,42 @@ func frameWord(b []byte, i int, w string) (int, bool, bool) {
 }
 
 // frameString checks the string that starts at the quote b[i]: no control
-// character, only the escapes of RFC 8259 section 7.
-func frameString(b []byte, i int) (int, bool) {
+// character, only the escapes of RFC 8259 section 7. It also says whether
+// the string has escapes or bytes above ASCII.
+func frameString(b []byte, i int) (int, strText, bool) {
+	var t strText
 	for j := i + 1; j < len(b); j++ {
 		switch c := b[j]; {
 		case c == '"':
-			return j + 1, true
+			return j + 1, t, true
 		case c < 0x20:
-			return j, false
+			return j, t, false
+		case c >= 0x80:
+			t |= strNonASCII
 		case c == '\\':
+			t |= strEscaped
 			j++
 			if j >= len(b) {
-				return j, false
+				return j, t, false
 			}
 			switch b[j] {
 			case '"', '\\', '/', 'b', 'f', 'n', 'r', 't':
 			case 'u':
 				if len(b)-j <= 4 {
-					return j, false
+					return j, t, false
 				}
 				for _, h := range b[j+1 : j+5] {
 					if !('0' <= h && h <= '9' || 'a' <= h|0x20 && h|0x20 <= 'f') {
-						return j, false
+						return j, t, false
 					}
 				}
 				j += 4
 			default:
-				return j, false
+				return j, t, false
 			}
 		}
 	}
-	return len(b), false
+	return len(b), t, false
 }
 
 // frameNumber checks the number that starts at b[i] (RFC 8259 section 6):
@@ -204,7 +229,7 @@ func appendCompact(dst, v []byte) []byte {
 	for i := 0; i < len(v); i++ {
 		switch c := v[i]; {
 		case c == '"':
-			end, _ := frameString(v, i)
+			end, _, _ := frameString(v, i)
 			dst = append(dst, v[i:end]...)
 			i = end - 1
 		case jsonSpace(c):
