@@ -89,7 +89,8 @@ func (a *Answer) AppendJSONFields(b []byte, inputs []Input, caution string) []by
 	b = append(b, `,"region":`...)
 	b = strconv.AppendInt(b, int64(a.Region), 10)
 	undefined := false
-	for _, f := range a.Fields {
+	for j := range a.Fields {
+		f := &a.Fields[j] // not copied: a Field is large
 		if !f.Defined {
 			undefined = true
 			continue
