@@ -252,6 +252,13 @@ func AppendNumber(b []byte, v float64) []byte {
 	if e == 0x7ff || e == 0 && m == 0 {
 		return strconv.AppendFloat(b, v, 'g', -1, 64)
 	}
+	// A whole number below 10^6 in size (a typed temperature, a row
+	// count) is its own shortest form: every integer below 2^53 is a
+	// float64, so no shorter string of digits reads back as it; and 'g'
+	// writes it without an exponent.
+	if i := int64(v); float64(i) == v && -1e6 < i && i < 1e6 {
+		return strconv.AppendInt(b, i, 10)
+	}
 	denorm := e == 0
 	if denorm {
 		e = 1

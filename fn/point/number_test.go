@@ -89,6 +89,25 @@ func BenchmarkAppendNumber(b *testing.B) {
 	})
 }
 
+// TestAppendNumberWholeNumbers holds the whole numbers, which AppendNumber
+// writes by a shorter way, to strconv: every one up to 10^6 in size and a
+// few beyond, where 'g' takes an exponent.
+func TestAppendNumberWholeNumbers(t *testing.T) {
+	var got, want []byte
+	check := func(v float64) {
+		got, want = AppendNumber(got[:0], v), strconv.AppendFloat(want[:0], v, 'g', -1, 64)
+		if string(got) != string(want) {
+			t.Fatalf("AppendNumber(%v) = %s, want %s", v, got, want)
+		}
+	}
+	for i := -1_000_001; i <= 1_000_001; i++ {
+		check(float64(i))
+	}
+	for _, v := range []float64{1e7, 123456789, 1 << 53, -(1 << 53), 1<<53 + 2, 1e21, 1e22, -1e300} {
+		check(v)
+	}
+}
+
 // TestPut8 checks the divisions put8 makes by multiplying, over the whole
 // range it uses them on, and its digits against fmt's over every 997th
 // value below 10^8 and the edges.
