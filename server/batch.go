@@ -66,7 +66,7 @@ func (s *Server) postBatch(c *gin.Context) {
 		s.fail(c, err)
 		return
 	}
-	sp, err := spoolBody(c.Writer, c.Request, s.cfg.MaxBodyBytes, s.cfg.ReadTimeout, s.cfg.WriteTimeout)
+	sp, err := spoolBody(c.Writer, c.Request, s.cfg.MaxBodyBytes, s.cfg.ReadTimeout, s.cfg.WriteTimeout, true)
 	if err != nil {
 		s.fail(c, err)
 		return

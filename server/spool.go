@@ -7,6 +7,7 @@ import (
 	"io"
 	"net/http"
 	"os"
+	"sync"
 	"time"
 )
 
@@ -20,26 +21,53 @@ const spoolMemBytes = 1 << 20
 // answer (most scripting HTTP clients) get a long streamed answer without
 // both sides waiting on full socket buffers, while memory stays bounded.
 type spool struct {
-	mem  []byte
-	f    *os.File
-	size int64
+	mem    []byte
+	f      *os.File
+	size   int64
+	pooled *[]byte // where mem came from, in spoolBufs, to go back there on Close
 }
+
+// spoolBufs keeps the memory of bodies up to spoolMemBytes from request to
+// request, for a caller that reads its body only until it closes the
+// spool (a batch): a fresh buffer of a megabyte costs its pages anew, about
+// as much as reading a small batch's rows.
+var spoolBufs = sync.Pool{New: func() any { b := make([]byte, 0, spoolMemBytes); return &b }}
 
 // spoolBody receives the body of r, at most limit bytes, moving the read
 // and write deadlines on while data arrives (the write deadline runs from
-// the start of the request). The caller closes the spool.
-func spoolBody(w http.ResponseWriter, r *http.Request, limit int64, readTimeout, writeTimeout time.Duration) (*spool, error) {
+// the start of the request). The caller closes the spool; with pooled, no
+// reader of it may be left when it does.
+func spoolBody(w http.ResponseWriter, r *http.Request, limit int64, readTimeout, writeTimeout time.Duration, pooled bool) (*spool, error) {
 	body := http.MaxBytesReader(w, r.Body, limit)
 	rc := http.NewResponseController(w)
 	sp := &spool{}
+	var buf []byte
 	if n := r.ContentLength; n > 0 && n <= spoolMemBytes && n <= limit {
-		sp.mem = make([]byte, 0, n) // grown once, not by doubling
+		if pooled {
+			sp.pooled = spoolBufs.Get().(*[]byte)
+			sp.mem = (*sp.pooled)[:0]
+		} else {
+			sp.mem = make([]byte, 0, n) // grown once, not by doubling
+		}
+	} else {
+		buf = make([]byte, 64<<10)
 	}
-	buf := make([]byte, 64<<10)
 	for {
-		n, err := body.Read(buf)
+		// A body that fits in memory is read straight into it.
+		into := buf
+		if buf == nil {
+			into = sp.mem[len(sp.mem):cap(sp.mem)]
+			if len(into) == 0 {
+				buf = make([]byte, 64<<10) // more than Content-Length said
+				into = buf
+			}
+		}
+		n, err := body.Read(into)
 		if n > 0 {
-			if err := sp.write(buf[:n]); err != nil {
+			if buf == nil {
+				sp.mem = sp.mem[:len(sp.mem)+n]
+				sp.size += int64(n)
+			} else if err := sp.write(into[:n]); err != nil {
 				sp.Close()
 				return nil, err
 			}
@@ -112,6 +140,10 @@ func (sp *spool) reader() io.Reader {
 
 // Close removes the temporary file, if any.
 func (sp *spool) Close() error {
+	if sp != nil && sp.pooled != nil {
+		spoolBufs.Put(sp.pooled) // the megabyte as Get gave it, whatever became of mem
+		sp.pooled, sp.mem = nil, nil
+	}
 	if sp == nil || sp.f == nil {
 		return nil
 	}

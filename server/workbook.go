@@ -78,7 +78,7 @@ func (s *Server) postWorkbook(c *gin.Context) {
 		s.fail(c, err)
 		return
 	}
-	in, err := spoolBody(c.Writer, c.Request, s.cfg.MaxWorkbookBytes, s.cfg.ReadTimeout, s.cfg.WriteTimeout)
+	in, err := spoolBody(c.Writer, c.Request, s.cfg.MaxWorkbookBytes, s.cfg.ReadTimeout, s.cfg.WriteTimeout, false)
 	if err != nil {
 		s.fail(c, err)
 		return
