@@ -11,6 +11,7 @@ import (
 	"net/http"
 	"net/http/httptest"
 	"strings"
+	"sync"
 	"syscall"
 	"testing"
 	"time"
@@ -234,5 +235,116 @@ func TestBatchRowAllocations(t *testing.T) {
 				t.Errorf("%.2f allocations per row, want 0", a)
 			}
 		})
+	}
+}
+
+// BenchmarkBatchParts splits a row's cost, in chunks as streamBatch takes
+// them with one worker: reading the row, solving it (its inputs read with
+// their units, the state, the plan's fill) and writing its answer, each
+// against the engine's cost of the same states in the same iteration.
+func BenchmarkBatchParts(b *testing.B) {
+	inputs := speedInputs(speedRows)
+	for _, tc := range []struct{ in, format string }{{"csv", "csv"}, {"csv", "json"}, {"json", "json"}, {"json", "csv"}} {
+		body := speedBody(speedRows, tc.in == "json")
+		out := &batchOut{syms: []string{"h", "s", "v"}, format: tc.format}
+		source := func() rowSource {
+			lim := &rowLimit{r: bytes.NewReader(body), max: maxRowBytes}
+			br := bufio.NewReaderSize(lim, 64<<10)
+			if tc.in == "json" {
+				js, err := newJSONSource(br, lim, siSet)
+				if err != nil {
+					b.Fatal(err)
+				}
+				return js
+			}
+			cs, err := newCSVSource(br, lim, siSet)
+			if err != nil {
+				b.Fatal(err)
+			}
+			out.header, out.delim = cs.header, cs.r.Comma
+			return cs
+		}
+		source()
+		out.prepare()
+		s := New(Config{Workers: 1, Version: "bench"})
+		rows := make([]batchRow, chunkRows)
+		var answers [blockRows]rowAnswer
+		b.Run(tc.in+"-"+tc.format, func(b *testing.B) {
+			var engine, read, solve, write time.Duration
+			var buf []byte
+			for b.Loop() {
+				t0 := time.Now()
+				for i := range inputs {
+					speedSink, _ = fn.Solve(inputs[i][0], inputs[i][1])
+				}
+				engine += time.Since(t0)
+				src := source()
+				for k := 0; k < speedRows; k += chunkRows {
+					t0 := time.Now()
+					for i := range rows {
+						rows[i].n = k + i + 1
+						if err := src.next(&rows[i]); err != nil {
+							b.Fatal(err)
+						}
+					}
+					read += time.Since(t0)
+					for j := 0; j < len(rows); j += blockRows {
+						block := rows[j : j+blockRows]
+						t1 := time.Now()
+						for i := range block {
+							s.solveRow(out, &block[i], &answers[i])
+						}
+						t2 := time.Now()
+						buf = buf[:0]
+						for i := range block {
+							buf = s.writeRow(buf, out, &block[i], &answers[i])
+						}
+						solve, write = solve+t2.Sub(t1), write+time.Since(t2)
+					}
+				}
+			}
+			n := float64(b.N * speedRows)
+			b.ReportMetric(float64(engine.Nanoseconds())/n, "ns/state")
+			b.ReportMetric(float64(read.Nanoseconds())/n, "ns/read")
+			b.ReportMetric(float64(solve.Nanoseconds())/n, "ns/solve")
+			b.ReportMetric(float64(write.Nanoseconds())/n, "ns/write")
+			b.ReportMetric(float64(read+solve+write)/float64(engine), "ratio")
+		})
+	}
+}
+
+// BenchmarkHandOver measures what a second worker gains on the states of
+// a chunk's halves, by the size of a half: on the 2-CPU development
+// machine a half of 128 rows lost (waking the other CPU cost more than its
+// work), which is why two workers take chunks of chunkRowsTwo rows.
+func BenchmarkHandOver(b *testing.B) {
+	inputs := speedInputs(speedRows)
+	var sinks [2]struct {
+		st fn.State
+		_  [64]byte // apart, not on one cache line
+	}
+	for _, half := range []int{blockRows, chunkRowsTwo / 2} {
+		for _, workers := range []int{1, 2} {
+			b.Run(fmt.Sprintf("half=%d/workers=%d", half, workers), func(b *testing.B) {
+				solve := func(w, from, to int) {
+					for i := from; i < to; i++ {
+						sinks[w].st, _ = fn.Solve(inputs[i][0], inputs[i][1])
+					}
+				}
+				for b.Loop() {
+					for k := 0; k+2*half <= len(inputs); k += 2 * half {
+						if workers == 1 {
+							solve(0, k, k+2*half)
+							continue
+						}
+						var wg sync.WaitGroup
+						wg.Go(func() { solve(1, k+half, k+2*half) })
+						solve(0, k, k+half)
+						wg.Wait()
+					}
+				}
+				b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*speedRows), "ns/state")
+			})
+		}
 	}
 }
