@@ -257,7 +257,13 @@ func AppendNumber(b []byte, v float64) []byte {
 	// float64, so no shorter string of digits reads back as it; and 'g'
 	// writes it without an exponent.
 	if i := int64(v); float64(i) == v && -1e6 < i && i < 1e6 {
-		return strconv.AppendInt(b, i, 10)
+		if i < 0 {
+			b = append(b, '-')
+			i = -i
+		}
+		var d [8]byte
+		put8(&d, uint32(i))
+		return append(b, d[len(d)-decimalLen(uint64(i)):]...)
 	}
 	denorm := e == 0
 	if denorm {
