@@ -29,15 +29,17 @@ import (
 // chunkRows rows (chunkRowsTwo with two workers) or about chunkBytes of
 // input, whichever comes first, with their answers, plus one row of at
 // most maxRowBytes being read: that, not the number of rows, bounds the
-// memory of a batch (about 1.6 KB a row of the chunk, kept from batch to
-// batch: batchMemory). One worker takes small chunks, whose rows are still
-// in the caches when they are solved and written. Two workers take large
-// ones, so that a half is worth handing over: on the 2-CPU development
-// machine a half of 128 rows (about 65 µs of work) cost more to hand to
-// another goroutine than it saved, as waking an idle CPU takes tens of
-// microseconds there, while halves of 1024 rows gained 1.6 times. Each
-// worker solves and writes its half in blocks of blockRows, so that the
-// answers it writes are still in the caches.
+// memory of a batch (a row of the chunk with its input is a few hundred
+// bytes, an answer about 1.5 KB, of which each worker holds blockRows; all
+// kept from batch to batch: batchMemory). One worker takes small chunks,
+// whose rows are still in the caches when they are solved and written.
+// Two workers take large ones, so that a half is worth handing over: on
+// the 2-CPU development machine a half of 128 rows (about 65 µs of work)
+// gained nothing or lost on the second CPU, as waking an idle CPU takes
+// tens of microseconds there, while halves of 1024 rows gained 1.5 to 1.6
+// times (BenchmarkHandOver). Each worker solves and writes its half in
+// blocks of blockRows, so that the answers it writes are still in the
+// caches.
 const (
 	chunkRows    = 256
 	chunkRowsTwo = 2048
