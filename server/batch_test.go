@@ -499,3 +499,76 @@ func BenchmarkBatch(b *testing.B) {
 		})
 	}
 }
+
+// TestBatchMemoryReused: a batch answers the same whatever the batches
+// before it left in the memory that batches hand on to each other (the
+// chunk's rows, their answers, the body's buffer): each batch of a mixed
+// sequence, sent back to back, against its answer on memory made anew
+// (the pools are emptied by two collections). The batches change their
+// way in and out, their columns, their keys midway, their row sizes and
+// their number of rows, so that a row's kept inputs, keys or text from
+// an earlier batch would show.
+func TestBatchMemoryReused(t *testing.T) {
+	var long, mixed strings.Builder
+	long.WriteString("[")
+	for i := range 5000 {
+		if i > 0 {
+			long.WriteString(",")
+		}
+		fmt.Fprintf(&long, `{"tag":"KB-%d %s","p":"%d barg","t":"%d °C"}`, i, strings.Repeat("x", i%97), 1+i%90, 180+i%250)
+	}
+	long.WriteString("]")
+	mixed.WriteString("[")
+	for i := range 300 {
+		if i > 0 {
+			mixed.WriteString(",")
+		}
+		if i < 150 {
+			fmt.Fprintf(&mixed, `{"p":"%d bar","h":"%d kJ/kg"}`, 2+i%40, 400+i*9)
+		} else {
+			fmt.Fprintf(&mixed, `{"T":%d,"x":0.%d}`, 100+i%200, 1+i%9)
+		}
+	}
+	mixed.WriteString("]")
+	var csvHS strings.Builder
+	csvHS.WriteString("h [kJ/kg];s [kJ/(kg·K)];note\n")
+	for i := range 700 {
+		fmt.Fprintf(&csvHS, "%d;%g;\"row %d, as logged\"\n", 2700+i%300, 6.5+float64(i%50)/50, i)
+	}
+	batches := []struct{ query, ctype, body string }{
+		{"", "application/json", long.String()},
+		{"?get=t,x,h", "application/json", mixed.String()},
+		{"?get=p,t&format=csv", "text/csv", csvHS.String()},
+		{"?format=json", "text/csv", "p [MPa],t [K]\n1,400\n0.5,600\n"},
+		{"?get=h,s,v", "application/json", long.String()},
+	}
+	answer := func(srv http.Handler, i int) string {
+		b := batches[i]
+		w := postBatch(srv, b.query, b.ctype, b.body)
+		if w.Code != 200 {
+			t.Fatalf("batch %d: status %d: %.300s", i, w.Code, w.Body.String())
+		}
+		return w.Body.String()
+	}
+	srv, _ := newServer(t, server.Config{Workers: 2})
+	fresh := make([]string, len(batches))
+	for i := range batches {
+		runtime.GC()
+		runtime.GC()
+		fresh[i] = answer(srv, i)
+	}
+	for round := range 2 {
+		for i := range batches {
+			if got := answer(srv, i); got != fresh[i] {
+				k := 0
+				for k < min(len(got), len(fresh[i])) && got[k] == fresh[i][k] {
+					k++
+				}
+				t.Fatalf("round %d, batch %d differs from its answer on fresh memory at byte %d:\n got …%.200s\nwant …%.200s", round, i, k, got[max(k-80, 0):], fresh[i][max(k-80, 0):])
+			}
+		}
+	}
+	if !strings.Contains(fresh[1], `"rows_ok":300`) || !strings.Contains(fresh[0], `"rows_ok":5000`) {
+		t.Errorf("the batches are not all answered: %.200s … %.200s", fresh[0][len(fresh[0])-200:], fresh[1][len(fresh[1])-200:])
+	}
+}
