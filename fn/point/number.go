@@ -3,7 +3,7 @@ package point
 // The numbers of every answer are written here. A batch writes three to
 // five per row, and Go's strconv.AppendFloat in its general form ('g',
 // shortest) cost about a tenth of a row's time each; this writes the same
-// bytes at about 0.6 of that cost, so that a row costs not much more than
+// bytes at about half that cost, so that a row costs not much more than
 // its state (issue 17). TestAppendNumberAsStrconv holds it to strconv
 // over every binary exponent, the subnormals, the boundaries of the 'g'
 // layout and millions of random values.
@@ -13,8 +13,8 @@ package point
 // Algorithms 5.2, 5.4 and 5.6. The code follows the implementation in Go's
 // internal/strconv (ftoadbox.go and math.go, Go 1.26), with its 128-bit
 // products taken from math/bits, its table of powers of ten computed at
-// start-up with math/big, and its digits written straight into the 'g'
-// layout. That implementation is
+// start-up with math/big, and its digits written eight at a time (put8)
+// straight into the 'g' layout. That implementation is
 //
 //	Copyright 2025 The Go Authors. All rights reserved.
 //	Use of this source code is governed by a BSD-style license: see
@@ -243,8 +243,8 @@ var pow10u64 = [20]uint64{1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9,
 // float64 ("2797.6", "1.5e-05"), which spreadsheets and JSON read as a
 // number: the one form every answer gives its numbers in. It writes what
 // strconv.AppendFloat(b, v, 'g', -1, 64) writes, byte for byte, at about
-// 0.6 of its cost (BenchmarkAppendNumber): the shortest digits by
-// Dragonbox, laid out as 'g' lays them out.
+// half its cost (BenchmarkAppendNumber): the shortest digits by Dragonbox,
+// laid out as 'g' lays them out.
 func AppendNumber(b []byte, v float64) []byte {
 	u := math.Float64bits(v)
 	e := int(u>>52) & 0x7ff
@@ -272,8 +272,7 @@ func AppendNumber(b []byte, v float64) []byte {
 		m |= 1 << 52
 	}
 	s, x := shortest(m, e-1023-52, denorm)
-	// The digits go to fixed places at the end of d, eight at a time in
-	// four pairs that do not wait on one another.
+	// The digits go to fixed places at the end of d, eight at a time.
 	var d [24]byte
 	if s < 1e8 {
 		put8((*[8]byte)(d[16:]), uint32(s))
