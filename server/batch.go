@@ -135,11 +135,9 @@ func (m *batchMemory) put() {
 	for i := range m.rows {
 		r := &m.rows[i]
 		r.gen = 0 // the next batch numbers its columns anew
-		if cap(r.raw) > 64<<10 {
-			r.raw = nil
-		}
-		if cap(r.line) > 64<<10 {
-			r.line = nil
+		if cap(r.raw) > 64<<10 || cap(r.line) > 64<<10 {
+			// The cells and inputs view these buffers: they go too.
+			r.raw, r.line, r.cells, r.given = nil, nil, nil, nil
 		}
 	}
 	for i := range m.halves {
